@@ -1,0 +1,3 @@
+// SPDX-License-Identifier: MIT
+// placeholder: replaced by the sweep benchmark
+int main() { return 0; }
