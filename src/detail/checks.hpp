@@ -4,6 +4,7 @@
 
 #include <cmath>
 #include <string>
+#include <string_view>
 
 #include "quietrail/error.hpp"
 
@@ -30,6 +31,21 @@ inline void require_positive_or_infinite(double v, const std::string& file, cons
                                          const std::string& unit) {
   require_input(!std::isnan(v) && v > 0.0, {file, field},
                 "a value > 0" + (unit.empty() ? "" : " " + unit) + " (or none)", describe_number(v, unit));
+}
+
+}  // namespace quietrail::detail
+
+namespace quietrail::detail {
+
+/// 'name' in single quotes, for messages. Built by appending: GCC 12 warns falsely
+/// (-Wrestrict) on "'" + std::string + "'".
+inline std::string quoted(std::string_view name) {
+  std::string out;
+  out.reserve(name.size() + 2);
+  out.push_back('\'');
+  out.append(name);
+  out.push_back('\'');
+  return out;
 }
 
 }  // namespace quietrail::detail

@@ -2,19 +2,11 @@
 #include "quietrail/models/element.hpp"
 
 #include "detail/checks.hpp"
+#include "detail/overloaded.hpp"
 
 namespace quietrail {
-namespace {
-template <class... Ts>
-struct overloaded : Ts... {
-  using Ts::operator()...;
-};
-template <class... Ts>
-overloaded(Ts...) -> overloaded<Ts...>;
-}  // namespace
-
 std::string_view element_kind(const Element& element) {
-  return std::visit(overloaded{
+  return std::visit(detail::Overloaded{
                         [](const Capacitor&) { return std::string_view("capacitor"); },
                         [](const Inductor&) { return std::string_view("inductor"); },
                         [](const Resistor&) { return std::string_view("resistor"); },
