@@ -1,6 +1,7 @@
 // SPDX-License-Identifier: MIT
 // Option parsing and report printing shared by the calc sub-commands.
 #include "cli/calc_support.hpp"
+#include "cli/terminal.hpp"
 
 #include <algorithm>
 #include <charconv>
@@ -141,7 +142,8 @@ Report::Report(std::string calculator) : calculator_(std::move(calculator)) {
            {"inputs", nlohmann::json::object()},
            {"results", nlohmann::json::object()},
            {"units", nlohmann::json::object()},
-           {"notes", nlohmann::json::array()}};
+           {"notes", nlohmann::json::array()},
+           {"caution", kCaution}};
 }
 
 void Report::input(const std::string& key, const std::string& label, double si, const std::string& unit) {
@@ -200,6 +202,7 @@ void Report::print(bool as_json) const {
   for (const Row& row : results_) fmt::print("{}\n", label_line(row.label, row.text, width));
   for (const std::string& line : table_) fmt::print("  {}\n", line);
   for (const std::string& n : notes_) fmt::print("note: {}\n", n);
+  fmt::print("{}\n", kCaution);
 }
 
 Subcommand add_subcommand(CLI::App& calc, const std::string& name, const std::string& description,

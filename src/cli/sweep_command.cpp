@@ -38,8 +38,6 @@ namespace fs = std::filesystem;
 // Ordered, so the JSON report reads in the order it is built.
 using Json = nlohmann::ordered_json;
 
-constexpr const char* kCaution =
-    "Planning estimate: confirm on hardware; respect voltage ratings and derating; follow the part makers' data.";
 constexpr const char* kCommandLine = "command line";
 
 struct SweepArgs {

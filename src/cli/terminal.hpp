@@ -10,6 +10,11 @@
 
 namespace quietrail::cli {
 
+/// The caution every report carries (README "Caution").
+inline constexpr const char* kCaution =
+    "Planning estimate: confirm on hardware; respect voltage ratings and derating; follow the "
+    "part makers' data, local codes and licensed practice.";
+
 /// The colour rule for known facts: colour only on a terminal, and never when the
 /// NO_COLOR environment variable is present and not empty (no-color.org convention).
 /// `no_color` is the variable's value, nullptr when unset.

@@ -1,5 +1,7 @@
 // SPDX-License-Identifier: MIT
 // All-or-nothing output files and the refusal to overwrite an input.
+// Behaviour tests of the documented contract in io/atomic_file.hpp; no physical values are
+// involved, each expected outcome is derived from that contract by inspection.
 #include <catch2/catch.hpp>
 
 #include <filesystem>

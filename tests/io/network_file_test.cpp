@@ -1,6 +1,8 @@
 // SPDX-License-Identifier: MIT
 // The JSON network file: values in SI or engineering notation land in the right model
 // fields, and every kind of bad input is an InputError naming the file and JSON pointer.
+// Numeric expectations name their source (REFERENCES sections, the SI brochure); error cases
+// check the documented schema of docs/network_file.md.
 #include <catch2/catch.hpp>
 
 #include <cmath>

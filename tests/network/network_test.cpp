@@ -1,5 +1,7 @@
 // SPDX-License-Identifier: MIT
 // Network construction: names, ids, and input errors that name the offending node/branch.
+// Behaviour tests of the documented contract in network/network.hpp (derived by inspection:
+// no physical values are involved).
 #include <catch2/catch.hpp>
 
 #include "quietrail/error.hpp"

@@ -1,5 +1,7 @@
 // SPDX-License-Identifier: MIT
 // Topology checks: every problem is reported by name, all in one InputError.
+// Expected findings are derived by hand from the connectivity of each small network, per the
+// rules documented in network/topology.hpp.
 #include <catch2/catch.hpp>
 
 #include "quietrail/error.hpp"

@@ -1,5 +1,7 @@
 // SPDX-License-Identifier: MIT
 // CSV, HTML and XML escaping of names taken from input files.
+// Expected strings follow the published standards named beside each check (RFC 4180,
+// OWASP cheat sheets, XML 1.0).
 #include <catch2/catch.hpp>
 
 #include <string>
