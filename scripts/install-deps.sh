@@ -9,6 +9,7 @@ packages=(
   libeigen3-dev nlohmann-json3-dev libfmt-dev libboost-graph-dev
   catch2 libcli11-dev
   ngspice   # independent AC reference for the tests
+  chromium  # headless browser for the HTML report render test
 )
 
 missing=()

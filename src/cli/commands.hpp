@@ -18,5 +18,6 @@ using Action = std::function<int()>;
 
 void register_calc(CLI::App& app, Action& action);
 void register_sweep(CLI::App& app, Action& action);
+void register_check(CLI::App& app, Action& action);
 
 }  // namespace quietrail::cli

@@ -21,6 +21,7 @@ int main(int argc, char** argv) {
   Action action;
   register_calc(app, action);
   register_sweep(app, action);
+  register_check(app, action);
   try {
     app.parse(argc, argv);
   } catch (const CLI::ParseError& e) {

@@ -18,6 +18,7 @@
 
 #include "cli/commands.hpp"
 #include "cli/exit_code.hpp"
+#include "cli/file_names.hpp"
 #include "cli/terminal.hpp"
 #include "quietrail/error.hpp"
 #include "quietrail/frequency_grid.hpp"
@@ -85,19 +86,6 @@ FrequencyGridOptions sweep_options(const NetworkFile& network, const SweepArgs& 
     throw InputError({kCommandLine, fmt::format("{} ({})", options, e.where().field)}, e.expected(), e.found());
   }
   return sweep;
-}
-
-// A file name from the network's name: letters, digits, '.', '-' and '_' kept, anything
-// else (path separators included) replaced by '_'.
-std::string file_stem_for(const std::string& name, const std::string& fallback) {
-  std::string out;
-  for (const char c : name) {
-    const bool keep = (c >= 'a' && c <= 'z') || (c >= 'A' && c <= 'Z') || (c >= '0' && c <= '9') || c == '.' ||
-                      c == '-' || c == '_';
-    out += keep ? c : '_';
-  }
-  if (out.find_first_not_of("._") == std::string::npos) return fallback;
-  return out;
 }
 
 // ---------------------------------------------------------------- per-branch figures

@@ -1,12 +1,15 @@
 // SPDX-License-Identifier: MIT
 // Terminal output for the CLI: whether to colour (TTY and NO_COLOR), colouring, and
-// aligned text tables. The only place that decides about terminals (the library never prints).
+// the header colour of aligned text tables (report/text_table.hpp). The only place that
+// decides about terminals (the library never prints).
 #pragma once
 
 #include <cstdio>
 #include <string>
 #include <string_view>
 #include <vector>
+
+#include "quietrail/report/text_table.hpp"
 
 namespace quietrail::cli {
 
@@ -30,32 +33,19 @@ enum class Tone { plain, heading, good, warning, bad, muted };
 /// `text` unchanged otherwise.
 std::string paint(std::string_view text, Tone tone, bool colour);
 
-/// A table of text cells with aligned columns.
+/// The library's aligned table (report/text_table.hpp) with the CLI's colour rule for the
+/// header, so every command renders tables the same way.
 ///
 /// Example:
 ///   TextTable table({"Branch", "Count"}, {TextTable::Align::left, TextTable::Align::right});
 ///   table.add_row({"C1", "4"});
-///   std::fputs(table.render(true).c_str(), stdout);
-class TextTable {
+///   std::fputs(table.render(colour_enabled(stdout)).c_str(), stdout);
+class TextTable : public quietrail::TextTable {
  public:
-  enum class Align { left, right };
+  using quietrail::TextTable::TextTable;
 
-  /// `align` per column; missing entries are left-aligned.
-  explicit TextTable(std::vector<std::string> headers, std::vector<Align> align = {});
-
-  /// Adds a row; it must have as many cells as there are headers (QUIETRAIL_ASSERT).
-  void add_row(std::vector<std::string> cells);
-
-  /// The table as lines ending in '\n': header, a rule of '-', the rows. Columns are
-  /// separated by two spaces and padded to the widest cell (UTF-8 code points are
-  /// counted as one column each); each line starts with `indent` spaces. The header is
-  /// painted as Tone::heading when `colour` is true.
+  /// quietrail::TextTable::render with the header painted as Tone::heading when `colour`.
   std::string render(bool colour, int indent = 2) const;
-
- private:
-  std::vector<std::string> headers_;
-  std::vector<Align> align_;
-  std::vector<std::vector<std::string>> rows_;
 };
 
 }  // namespace quietrail::cli

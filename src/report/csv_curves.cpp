@@ -25,11 +25,13 @@ void append_columns(std::string& out, Complex z) {
 }  // namespace
 
 std::string format_impedance_csv(const FrequencyGrid& grid, const ComplexVector& port,
-                                 const std::vector<NamedCurve>& extra) {
+                                 const std::vector<NamedCurve>& extra, const std::vector<NamedColumn>& columns) {
   QUIETRAIL_ASSERT(static_cast<std::size_t>(port.size()) == grid.size());
   for (const auto& curve : extra) QUIETRAIL_ASSERT(static_cast<std::size_t>(curve.impedance.size()) == grid.size());
+  for (const auto& column : columns) QUIETRAIL_ASSERT(static_cast<std::size_t>(column.values.size()) == grid.size());
 
   std::string out = "frequency_Hz,port_abs_ohm,port_phase_deg,port_re_ohm,port_im_ohm";
+  for (const auto& column : columns) out.append(",").append(escape_csv_cell(column.name));
   for (const auto& curve : extra) {
     for (const char* column : {" abs_ohm", " phase_deg", " re_ohm", " im_ohm"})
       out.append(",").append(escape_csv_cell(curve.name + column));
@@ -39,6 +41,7 @@ std::string format_impedance_csv(const FrequencyGrid& grid, const ComplexVector&
     const auto row = static_cast<Eigen::Index>(i);
     fmt::format_to(std::back_inserter(out), "{:.10g}", grid[i]);
     append_columns(out, port[row]);
+    for (const auto& column : columns) fmt::format_to(std::back_inserter(out), ",{:.10g}", column.values[row]);
     for (const auto& curve : extra) append_columns(out, curve.impedance[row]);
     out += '\n';
   }
@@ -46,8 +49,9 @@ std::string format_impedance_csv(const FrequencyGrid& grid, const ComplexVector&
 }
 
 void write_impedance_csv(const std::filesystem::path& path, const FrequencyGrid& grid, const ComplexVector& port,
-                         const std::vector<NamedCurve>& extra, const std::vector<std::filesystem::path>& inputs) {
-  write_file_atomically(path, format_impedance_csv(grid, port, extra), inputs);
+                         const std::vector<NamedCurve>& extra, const std::vector<std::filesystem::path>& inputs,
+                         const std::vector<NamedColumn>& columns) {
+  write_file_atomically(path, format_impedance_csv(grid, port, extra, columns), inputs);
 }
 
 }  // namespace quietrail

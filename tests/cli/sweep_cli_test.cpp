@@ -3,12 +3,9 @@
 // checks exit codes, the CSV against closed forms, stderr, leftovers and colour rules.
 #include <catch2/catch.hpp>
 
-#include <pty.h>
-#include <sys/wait.h>
 #include <unistd.h>
 
 #include <cctype>
-#include <cerrno>
 #include <cmath>
 #include <complex>
 #include <cstdlib>
@@ -20,6 +17,7 @@
 
 #include <nlohmann/json.hpp>
 
+#include "support/cli_runner.hpp"
 #include "support/temp_dir.hpp"
 
 namespace fs = std::filesystem;
@@ -40,38 +38,11 @@ constexpr double kReference = 1e-3;
 const fs::path kSourceDir = QUIETRAIL_SOURCE_DIR;
 const fs::path kCli = QUIETRAIL_CLI_PATH;
 
-struct Run {
-  int exit_code = -1;
-  std::string out;
-  std::string err;
-};
+using Run = quietrail::test::CliRun;
 
-std::string quoted(const std::string& text) {
-  std::string out = "'";
-  for (const char c : text) {
-    if (c == '\'') out += "'\\''";
-    else out += c;
-  }
-  out += "'";
-  return out;
-}
-
-// Runs the CLI with `args` through the shell, stdout and stderr captured to files in `dir`.
+// Runs the CLI with `args`, stdout and stderr captured (support/cli_runner.hpp).
 Run run_cli(const TempDir& dir, const std::vector<std::string>& args) {
-  std::string command = quoted(kCli.string());
-  // Appended piecewise: GCC 12 warns falsely (-Wrestrict) on "literal" + std::string.
-  for (const auto& arg : args) command.append(" ").append(quoted(arg));
-  const fs::path out = dir / "stdout.txt";
-  const fs::path err = dir / "stderr.txt";
-  command.append(" > ").append(quoted(out.string())).append(" 2> ").append(quoted(err.string()));
-  const int status = std::system(command.c_str());
-  Run run;
-  run.exit_code = WIFEXITED(status) ? WEXITSTATUS(status) : -1;
-  run.out = read_text(out);
-  run.err = read_text(err);
-  fs::remove(out);
-  fs::remove(err);
-  return run;
+  return quietrail::test::run_cli(kCli, dir.path(), args);
 }
 
 std::vector<std::vector<std::string>> read_csv(const fs::path& path) {
@@ -94,37 +65,12 @@ std::complex<double> series_rlc(double f, double c, double l, double r) {
   return {r, w * l - 1.0 / (w * c)};
 }
 
-// Runs the CLI on a pseudo-terminal (so isatty is true for it) with NO_COLOR set to
-// `no_color` (nullptr: unset) and returns everything it wrote.
+// Runs the CLI on a pseudo-terminal with NO_COLOR set to `no_color` (nullptr: unset) and
+// returns everything it wrote (support/cli_runner.hpp).
 std::string run_on_terminal(const std::vector<std::string>& args, const char* no_color) {
-  int master = -1;
-  const pid_t pid = ::forkpty(&master, nullptr, nullptr, nullptr);
-  REQUIRE(pid >= 0);
-  if (pid == 0) {
-    if (no_color) ::setenv("NO_COLOR", no_color, 1);
-    else ::unsetenv("NO_COLOR");
-    std::vector<char*> argv;
-    std::vector<std::string> storage{kCli.string()};
-    storage.insert(storage.end(), args.begin(), args.end());
-    for (auto& s : storage) argv.push_back(s.data());
-    argv.push_back(nullptr);
-    ::execv(argv[0], argv.data());
-    ::_exit(127);
-  }
-  std::string output;
-  char buffer[4096];
-  for (;;) {
-    const ssize_t n = ::read(master, buffer, sizeof buffer);
-    if (n > 0) output.append(buffer, static_cast<std::size_t>(n));
-    else if (n < 0 && errno == EINTR) continue;
-    else break;  // EIO once the child has closed the terminal
-  }
-  ::close(master);
-  int status = 0;
-  ::waitpid(pid, &status, 0);
-  CHECK(WIFEXITED(status));
-  CHECK(WEXITSTATUS(status) == 0);
-  return output;
+  const Run run = quietrail::test::run_on_terminal(kCli, args, no_color);
+  CHECK(run.exit_code == 0);
+  return run.out;
 }
 
 const char* const kOneCapacitor = R"({

@@ -72,6 +72,30 @@ TEST_CASE("extra curves add four columns each with escaped names", "[report]") {
   CHECK_THAT(std::stod(row[6]), WithinRel(90.0, kPrintTolerance));  // +j: +90 degrees
 }
 
+TEST_CASE("real-valued columns follow the port columns with escaped names and their values", "[report]") {
+  const FrequencyGrid grid(std::vector<double>{1e3, 1e4});
+  ComplexVector port(2), part(2);
+  port << quietrail::Complex(3.0, 4.0), quietrail::Complex(0.0, 2.0);
+  part << quietrail::Complex(1.0, 0.0), quietrail::Complex(1.0, 0.0);
+  quietrail::RealVector target(2);
+  target << 10.0, 1.0;
+  // Columns are written as given, ten significant digits; the name gets the formula guard.
+  quietrail::RealVector ratio(2);
+  ratio << 0.5, 2.0;
+  const std::string csv = quietrail::format_impedance_csv(grid, port, {NamedCurve{"C1", part}},
+                                                          {{"target_ohm", target}, {"=ratio", ratio}});
+  const auto lines = split(csv, '\n');
+  REQUIRE(lines.size() == 3);
+  CHECK(lines[0] ==
+        "frequency_Hz,port_abs_ohm,port_phase_deg,port_re_ohm,port_im_ohm,target_ohm,'=ratio,"
+        "C1 abs_ohm,C1 phase_deg,C1 re_ohm,C1 im_ohm");
+  const auto row = split(lines[2], ',');
+  REQUIRE(row.size() == 11);
+  CHECK_THAT(std::stod(row[5]), WithinRel(1.0, kPrintTolerance));
+  CHECK_THAT(std::stod(row[6]), WithinRel(2.0, kPrintTolerance));
+  CHECK_THAT(std::stod(row[7]), WithinRel(1.0, kPrintTolerance));  // C1 |Z| follows
+}
+
 TEST_CASE("a curve of the wrong length is a bug, not bad input", "[report]") {
   const FrequencyGrid grid(std::vector<double>{1e3, 2e3});
   ComplexVector z(1);

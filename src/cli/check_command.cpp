@@ -1,0 +1,117 @@
+// SPDX-License-Identifier: MIT
+// `quietrail check`: read a project (docs/project_file.md), check the rail's impedance
+// against its target, write JSON, CSV, SVG and HTML reports and print a summary.
+#include <cstdio>
+#include <filesystem>
+#include <memory>
+#include <string>
+#include <vector>
+
+#include <CLI/CLI.hpp>
+#include <fmt/core.h>
+
+#include "cli/check_report.hpp"
+#include "cli/commands.hpp"
+#include "cli/exit_code.hpp"
+#include "cli/file_names.hpp"
+#include "cli/terminal.hpp"
+#include "quietrail/analysis/check.hpp"
+#include "quietrail/error.hpp"
+#include "quietrail/frequency_grid.hpp"
+#include "quietrail/io/atomic_file.hpp"
+#include "quietrail/io/project_file.hpp"
+#include "quietrail/network/nodal_solver.hpp"
+
+namespace quietrail::cli {
+namespace {
+
+namespace fs = std::filesystem;
+
+struct CheckArgs {
+  std::string project_file;
+  std::string out_dir;
+  bool json = false;
+};
+
+CheckFiles output_files(const fs::path& input, const Project& project, const std::string& out_dir) {
+  CheckFiles files;
+  files.directory = out_dir.empty() ? fs::path("out") / input.stem() : fs::path(out_dir);
+  const std::string stem = file_stem_for(project.name, input.stem().string());
+  files.json = files.directory / (stem + "_check.json");
+  files.csv = files.directory / (stem + "_curves.csv");
+  files.svg = files.directory / (stem + "_impedance.svg");
+  files.html = files.directory / (stem + "_report.html");
+  return files;
+}
+
+// Writes every file or none: each is written atomically, and when a later one fails the
+// earlier ones of this run are removed again, so a failed run leaves no partial report.
+void write_all(const std::vector<std::pair<fs::path, std::string>>& outputs, const std::vector<fs::path>& inputs) {
+  for (const auto& [path, text] : outputs) check_not_an_input(path, inputs);
+  std::vector<fs::path> written;
+  try {
+    for (const auto& [path, text] : outputs) {
+      write_file_atomically(path, text, inputs);
+      written.push_back(path);
+    }
+  } catch (...) {
+    std::error_code ignored;
+    for (const auto& path : written) fs::remove(path, ignored);
+    throw;
+  }
+}
+
+int run(const CheckArgs& args) {
+  // Everything that can fail on bad input happens before anything is written.
+  CheckRun run;
+  run.input = args.project_file;
+  run.project = read_project_file(run.input);
+  const Project& project = run.project;
+  run.result = run_check(project.network, project.port, *project.target, project.check_options(), project.branch_info);
+
+  // With a load side, the other view is drawn beside the verdict's view.
+  if (project.die) {
+    const NodeId other = project.view == LoadView::die ? project.board : *project.die;
+    run.other_view = solve_port_impedance(project.network, other, FrequencyGrid(run.result.frequencies));
+    run.other_view_name = "|Z| seen from the " + std::string(project.view == LoadView::die ? "board" : "die");
+  }
+  run.files = output_files(run.input, project, args.out_dir);
+
+  std::vector<fs::path> inputs{run.input};
+  for (const auto& library : project.libraries) inputs.emplace_back(library);
+  if (!project.bom_csv.empty()) inputs.emplace_back(project.bom_csv);
+
+  const std::string json = check_json(run);
+  const std::string svg = check_svg(run);
+  const std::vector<std::pair<fs::path, std::string>> outputs{
+      {run.files.json, json}, {run.files.csv, check_csv(run)}, {run.files.svg, svg},
+      {run.files.html, check_html(run, svg)}};
+
+  std::error_code error;
+  fs::create_directories(run.files.directory, error);
+  if (error)
+    throw InputError({run.files.directory.string(), "--out"}, "an output directory that exists or can be created",
+                     error.message());
+  write_all(outputs, inputs);
+
+  if (args.json) fmt::print("{}", json);
+  else fmt::print("{}", check_text(run, colour_enabled(stdout)));
+  return run.result.status == CheckStatus::pass ? kExitOk : kExitTargetNotMet;
+}
+
+}  // namespace
+
+void register_check(CLI::App& app, Action& action) {
+  auto args = std::make_shared<CheckArgs>();
+  CLI::App* sub = app.add_subcommand(
+      "check",
+      "Check a rail's BOM against its target impedance: exit 0 when met, 1 when not, 2 on bad input; writes "
+      "<out>/<name>_report.html, _check.json, _curves.csv and _impedance.svg");
+  sub->add_option("project", args->project_file, "project file (JSON; see docs/project_file.md)")->required();
+  sub->add_option("--out", args->out_dir, "output directory (default: out/<project file stem>)");
+  sub->add_flag("--json", args->json, "print the JSON report on stdout instead of the summary");
+  sub->footer("Example: quietrail check examples/projects/core_rail.json");
+  sub->callback([&action, args] { action = [args] { return run(*args); }; });
+}
+
+}  // namespace quietrail::cli
