@@ -9,6 +9,7 @@
 #include "quietrail/analysis/check.hpp"
 #include "quietrail/error.hpp"
 #include "quietrail/network/network.hpp"
+#include "support/input_error.hpp"
 
 using Catch::Matchers::Contains;
 using Catch::Matchers::StartsWith;
@@ -22,6 +23,8 @@ using quietrail::MountedPart;
 using quietrail::Network;
 using quietrail::NodeId;
 using quietrail::TargetImpedance;
+
+using quietrail::test::input_error_of;
 
 namespace {
 
@@ -58,15 +61,6 @@ Complex two_branch(double f) {
   return z1 * z2 / (z1 + z2);
 }
 
-template <class F>
-std::string error_of(F&& f) {
-  try {
-    f();
-  } catch (const quietrail::InputError& e) {
-    return e.what();
-  }
-  return {};
-}
 
 }  // namespace
 
@@ -206,15 +200,15 @@ TEST_CASE("check rejects bad options, an uncovered band and a mismatched info li
   const auto flat = TargetImpedance::flat(10e-3);
   CheckOptions reversed;
   reversed.grid = {.start = 1e6, .stop = 1e3};
-  CHECK_THAT(error_of([&] { (void)quietrail::run_check(net, vdd, flat, reversed); }), Contains("grid/stop"));
+  CHECK_THAT(input_error_of([&] { (void)quietrail::run_check(net, vdd, flat, reversed); }), Contains("grid/stop"));
   CheckOptions loose;
   loose.refinement.frequency_tolerance = 0.5;
-  CHECK_THAT(error_of([&] { (void)quietrail::run_check(net, vdd, flat, loose); }),
+  CHECK_THAT(input_error_of([&] { (void)quietrail::run_check(net, vdd, flat, loose); }),
              Contains("refinement/frequency_tolerance"));
   const auto partial = TargetImpedance::from_segments({quietrail::TargetSegment::flat(1e4, 1e9, 10e-3)});
-  CHECK_THAT(error_of([&] { (void)quietrail::run_check(net, vdd, partial); }),
+  CHECK_THAT(input_error_of([&] { (void)quietrail::run_check(net, vdd, partial); }),
              Contains("target") && Contains("no target from 1 kHz to 10 kHz"));
-  CHECK_THAT(error_of([&] { (void)quietrail::run_check(net, vdd, flat, {}, std::vector<BranchInfo>(2)); }),
+  CHECK_THAT(input_error_of([&] { (void)quietrail::run_check(net, vdd, flat, {}, std::vector<BranchInfo>(2)); }),
              Contains("info"));
   CHECK_THROWS_AS(quietrail::run_check(net, Network::kGround, flat), quietrail::InputError);
 }

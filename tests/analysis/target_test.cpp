@@ -7,6 +7,7 @@
 
 #include "quietrail/analysis/target.hpp"
 #include "quietrail/error.hpp"
+#include "support/input_error.hpp"
 
 using Catch::Matchers::Contains;
 using Catch::Matchers::WithinRel;
@@ -16,19 +17,12 @@ using quietrail::TargetImpedance;
 using quietrail::TargetPoint;
 using quietrail::TargetSegment;
 
+using quietrail::test::input_error_of;
+
 namespace {
 
 constexpr double kClosedForm = 1e-9;  // REFERENCES section 1: exact arithmetic
 
-template <class F>
-std::string error_of(F&& f) {
-  try {
-    f();
-  } catch (const quietrail::InputError& e) {
-    return e.what();
-  }
-  return {};
-}
 
 }  // namespace
 
@@ -108,12 +102,12 @@ TEST_CASE("at a step between segments the stricter value applies", "[analysis]")
 }
 
 TEST_CASE("target segments with a gap or an overlap are rejected naming both", "[analysis]") {
-  const std::string gap = error_of([] {
+  const std::string gap = input_error_of([] {
     (void)TargetImpedance::from_segments({TargetSegment::flat(1e3, 1e6, 10e-3), TargetSegment::flat(2e6, 1e9, 10e-3)},
                                          "rail.json", "/target/segments");
   });
   CHECK_THAT(gap, Contains("rail.json") && Contains("/target/segments/1/start") && Contains("gap from 1 MHz to 2 MHz"));
-  const std::string overlap = error_of([] {
+  const std::string overlap = input_error_of([] {
     (void)TargetImpedance::from_segments({TargetSegment::flat(1e3, 2e6, 10e-3), TargetSegment::flat(1e6, 1e9, 10e-3)},
                                          "rail.json", "/target/segments");
   });
@@ -125,32 +119,32 @@ TEST_CASE("target segments with a gap or an overlap are rejected naming both", "
 
 TEST_CASE("segments must cover the band of a check", "[analysis]") {
   const auto t = TargetImpedance::from_segments({TargetSegment::flat(10e3, 100e6, 10e-3)});
-  CHECK_THAT(error_of([&] { t.cover_band(1e3, 100e6, "rail.json", "/target"); }),
+  CHECK_THAT(input_error_of([&] { t.cover_band(1e3, 100e6, "rail.json", "/target"); }),
              Contains("/target") && Contains("no target from 1 kHz to 10 kHz"));
-  CHECK_THAT(error_of([&] { t.cover_band(10e3, 1e9); }), Contains("no target from 100 MHz to 1 GHz"));
+  CHECK_THAT(input_error_of([&] { t.cover_band(10e3, 1e9); }), Contains("no target from 100 MHz to 1 GHz"));
   CHECK_NOTHROW(t.cover_band(10e3, 100e6));
   CHECK_NOTHROW(TargetImpedance::flat(1e-3).cover_band(1.0, 1e12));
 }
 
 TEST_CASE("bad targets and rails are rejected by field", "[analysis]") {
-  CHECK_THAT(error_of([] { (void)TargetImpedance::flat(0.0, "r.json", "/target/impedance"); }),
+  CHECK_THAT(input_error_of([] { (void)TargetImpedance::flat(0.0, "r.json", "/target/impedance"); }),
              Contains("/target/impedance") && Contains("> 0"));
-  CHECK_THAT(error_of([] { (void)TargetImpedance::flat(-1e-3); }), Contains("> 0"));
-  CHECK_THAT(error_of([] { (void)TargetImpedance::from_points({{1e6, 1e-3}}, "r.json", "/target/points"); }),
+  CHECK_THAT(input_error_of([] { (void)TargetImpedance::flat(-1e-3); }), Contains("> 0"));
+  CHECK_THAT(input_error_of([] { (void)TargetImpedance::from_points({{1e6, 1e-3}}, "r.json", "/target/points"); }),
              Contains("/target/points") && Contains("at least two points"));
-  CHECK_THAT(error_of([] { (void)TargetImpedance::from_points({{1e6, 1e-3}, {1e6, 2e-3}}, "", "/t"); }),
+  CHECK_THAT(input_error_of([] { (void)TargetImpedance::from_points({{1e6, 1e-3}, {1e6, 2e-3}}, "", "/t"); }),
              Contains("/t/1/frequency") && Contains("increasing"));
-  CHECK_THAT(error_of([] { (void)TargetImpedance::from_points({{1e6, 1e-3}, {2e6, -2e-3}}, "", "/t"); }),
+  CHECK_THAT(input_error_of([] { (void)TargetImpedance::from_points({{1e6, 1e-3}, {2e6, -2e-3}}, "", "/t"); }),
              Contains("/t/1/impedance"));
-  CHECK_THAT(error_of([] { (void)TargetImpedance::from_segments({{1e6, 1e3, 1e-3, 1e-3}}, "", "/s"); }),
+  CHECK_THAT(input_error_of([] { (void)TargetImpedance::from_segments({{1e6, 1e3, 1e-3, 1e-3}}, "", "/s"); }),
              Contains("/s/0/stop"));
-  CHECK_THAT(error_of([] { (void)TargetImpedance::from_segments({}, "", "/s"); }), Contains("at least one"));
+  CHECK_THAT(input_error_of([] { (void)TargetImpedance::from_segments({}, "", "/s"); }), Contains("at least one"));
 
   const RailSpec good{.voltage = 1.0, .ripple = 0.05, .max_current = 10.0};
   auto rail_error = [&](auto change) {
     RailSpec r = good;
     change(r);
-    return error_of([&] { r.validate("rail.json", "/rail"); });
+    return input_error_of([&] { r.validate("rail.json", "/rail"); });
   };
   CHECK(rail_error([](RailSpec&) {}).empty());
   CHECK_THAT(rail_error([](RailSpec& r) { r.ripple = 1.5; }), Contains("rail.json") && Contains("/rail/ripple"));

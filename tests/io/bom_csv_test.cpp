@@ -1,7 +1,7 @@
 // SPDX-License-Identifier: MIT
 // BOM CSV: RFC 4180 splitting, designator lists, header names, resolution to library parts
 // by value, package, dielectric and rating, and every error naming the file and line.
-// Splitting follows RFC 4180 (its section 2 rules are quoted beside the checks); matching
+// Splitting follows the published standard RFC 4180 (its section 2 rules are quoted beside the checks); matching
 // follows the rules documented in docs/project_file.md ("BOM from CSV").
 #include <catch2/catch.hpp>
 

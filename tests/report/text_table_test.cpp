@@ -1,5 +1,5 @@
 // SPDX-License-Identifier: MIT
-// Aligned text tables for terminal summaries. Expected layouts are written out by hand from
+// Aligned text tables for terminal summaries. Expected layouts are derived by hand from
 // the rule in text_table.hpp: two spaces between columns, padding to the widest cell.
 #include <catch2/catch.hpp>
 
