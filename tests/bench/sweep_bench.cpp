@@ -1,6 +1,7 @@
 // SPDX-License-Identifier: MIT
 // Sweep benchmark (single thread): the all-parallel fast path on a 30-part rail and the
 // nodal solve on a 50-node plane mesh, both at 1000 frequency points. Median of 7 runs.
+// A benchmark, not a test: it times and prints, and asserts nothing (figures in docs/benchmarks.md).
 #include <algorithm>
 #include <chrono>
 #include <cmath>

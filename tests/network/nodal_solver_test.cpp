@@ -54,6 +54,17 @@ Complex bead(double f, double l, double r_dc, double c_p, double r_core) {
   return r_dc + 1.0 / (1.0 / (j * w * l) + 1.0 / r_core + j * w * c_p);
 }
 
+// port -[series part]- m -[0.25 ohm]- gnd, with 100 nF / 20 mohm / 0.5 nH from port to gnd.
+Network series_into_damped_port(const std::string& name, const MountedPart& series) {
+  Network net;
+  net.add_node("port");
+  net.add_node("m");
+  net.add_branch(name, "port", "m", series);
+  net.add_branch("R_m", "m", "gnd", MountedPart{Resistor{0.25, 0.0}});
+  net.add_branch("C_port", "port", "gnd", MountedPart{Capacitor{100e-9, 20e-3, 0.5e-9}});
+  return net;
+}
+
 }  // namespace
 
 TEST_CASE("a ten-section ladder equals its series-parallel reduction", "[network]") {
@@ -174,12 +185,7 @@ TEST_CASE("a series branch with exactly zero impedance at one grid frequency is 
 
   const NodalFormulation formulation = formulation_under_test();
   INFO(describe(formulation));
-  Network net;
-  net.add_node("port");
-  net.add_node("m");
-  net.add_branch("LC", "port", "m", series);
-  net.add_branch("R_m", "m", "gnd", MountedPart{Resistor{0.25, 0.0}});
-  net.add_branch("C_port", "port", "gnd", MountedPart{Capacitor{100e-9, 20e-3, 0.5e-9}});
+  const Network net = series_into_damped_port("LC", series);
   const FrequencyGrid grid(std::vector<double>{0.5 * f0, f0, 2.0 * f0});
   const NodalResult result = NodalSolver(net, grid, {formulation}).solve(1);
   for (std::size_t i = 0; i < grid.size(); ++i) {
@@ -212,12 +218,7 @@ TEST_CASE("a series branch that is an exact open at one grid frequency carries n
 
   const NodalFormulation formulation = formulation_under_test();
   INFO(describe(formulation));
-  Network net;
-  net.add_node("port");
-  net.add_node("m");
-  net.add_branch("TANK", "port", "m", tank);
-  net.add_branch("R_m", "m", "gnd", MountedPart{Resistor{0.25, 0.0}});
-  net.add_branch("C_port", "port", "gnd", MountedPart{Capacitor{100e-9, 20e-3, 0.5e-9}});
+  const Network net = series_into_damped_port("TANK", tank);
   const FrequencyGrid grid(std::vector<double>{0.5 * f0, f0, 2.0 * f0});
   const NodalResult result = NodalSolver(net, grid, {formulation}).solve(1);
   for (std::size_t i = 0; i < grid.size(); ++i) {
