@@ -1,6 +1,7 @@
 // SPDX-License-Identifier: MIT
 // `quietrail check`: read a project (docs/project_file.md), check the rail's impedance
 // against its target, write JSON, CSV, SVG and HTML reports and print a summary.
+#include <algorithm>
 #include <cstdio>
 #include <filesystem>
 #include <memory>
@@ -14,11 +15,11 @@
 #include "cli/commands.hpp"
 #include "cli/exit_code.hpp"
 #include "cli/file_names.hpp"
+#include "cli/output_files.hpp"
 #include "cli/terminal.hpp"
 #include "quietrail/analysis/check.hpp"
 #include "quietrail/error.hpp"
 #include "quietrail/frequency_grid.hpp"
-#include "quietrail/io/atomic_file.hpp"
 #include "quietrail/io/project_file.hpp"
 #include "quietrail/network/nodal_solver.hpp"
 
@@ -44,29 +45,18 @@ CheckFiles output_files(const fs::path& input, const Project& project, const std
   return files;
 }
 
-// Writes every file or none: each is written atomically, and when a later one fails the
-// earlier ones of this run are removed again, so a failed run leaves no partial report.
-void write_all(const std::vector<std::pair<fs::path, std::string>>& outputs, const std::vector<fs::path>& inputs) {
-  for (const auto& [path, text] : outputs) check_not_an_input(path, inputs);
-  std::vector<fs::path> written;
-  try {
-    for (const auto& [path, text] : outputs) {
-      write_file_atomically(path, text, inputs);
-      written.push_back(path);
-    }
-  } catch (...) {
-    std::error_code ignored;
-    for (const auto& path : written) fs::remove(path, ignored);
-    throw;
-  }
-}
-
 int run(const CheckArgs& args) {
   // Everything that can fail on bad input happens before anything is written.
   CheckRun run;
   run.input = args.project_file;
   run.project = read_project_file(run.input);
   const Project& project = run.project;
+  // A project with only a plan section has nothing to check yet.
+  if (std::none_of(project.roles.begin(), project.roles.end(), [](BranchRole role) { return role == BranchRole::bom; }))
+    throw InputError({project.file, "/bom"},
+                     "a BOM to check (this project has only a plan section; run `quietrail plan` first, then check "
+                     "its planned project)",
+                     "no BOM line");
   run.result = run_check(project.network, project.port, *project.target, project.check_options(), project.branch_info);
 
   // With a load side, the other view is drawn beside the verdict's view.
@@ -83,16 +73,12 @@ int run(const CheckArgs& args) {
 
   const std::string json = check_json(run);
   const std::string svg = check_svg(run);
-  const std::vector<std::pair<fs::path, std::string>> outputs{
+  const std::vector<OutputFile> outputs{
       {run.files.json, json}, {run.files.csv, check_csv(run)}, {run.files.svg, svg},
       {run.files.html, check_html(run, svg)}};
 
-  std::error_code error;
-  fs::create_directories(run.files.directory, error);
-  if (error)
-    throw InputError({run.files.directory.string(), "--out"}, "an output directory that exists or can be created",
-                     error.message());
-  write_all(outputs, inputs);
+  create_output_directory(run.files.directory);
+  write_all_or_none(outputs, inputs);
 
   if (args.json) fmt::print("{}", json);
   else fmt::print("{}", check_text(run, colour_enabled(stdout)));

@@ -2,6 +2,7 @@
 // Rendering a finished check for people and scripts: JSON, CSV, SVG, HTML and the terminal
 // summary. The numbers come from run_check and the project; nothing is computed twice.
 #include "cli/check_report.hpp"
+#include "cli/ratio_text.hpp"
 
 #include <cctype>
 #include <cmath>
@@ -23,23 +24,11 @@ namespace {
 // Ordered, so the JSON report reads in the order it is built.
 using Json = nlohmann::ordered_json;
 
-double db(double ratio) { return 20.0 * std::log10(ratio); }
-
 Json number(double value) { return std::isfinite(value) ? Json(value) : Json(nullptr); }
 Json number(const std::optional<double>& value) { return value ? number(*value) : Json(nullptr); }
 
 std::string value_or_dash(const std::optional<double>& value, const char* unit, int digits = 3) {
   return value && std::isfinite(*value) ? format_value(*value, unit, digits) : std::string("-");
-}
-
-std::string ratio_text(double ratio) {
-  if (!std::isfinite(ratio)) return "inf";
-  return fmt::format("{:.3g}", ratio);
-}
-
-std::string db_text(double ratio) {
-  if (!(ratio > 0.0) || !std::isfinite(ratio)) return "-";
-  return fmt::format("{:+.1f} dB", db(ratio));
 }
 
 std::string q_text(double q) { return std::isfinite(q) ? fmt::format("{:.3g}", q) : std::string("-"); }

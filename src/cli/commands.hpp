@@ -16,6 +16,7 @@ namespace quietrail::cli {
 /// exception to an exit code in one place.
 using Action = std::function<int()>;
 
+void register_plan(CLI::App& app, Action& action);
 void register_calc(CLI::App& app, Action& action);
 void register_sweep(CLI::App& app, Action& action);
 void register_check(CLI::App& app, Action& action);

@@ -19,6 +19,7 @@ int main(int argc, char** argv) {
   app.require_subcommand(1);
   app.set_version_flag("--version", "quietrail 0.1.0");
   Action action;
+  register_plan(app, action);
   register_calc(app, action);
   register_sweep(app, action);
   register_check(app, action);

@@ -1,13 +1,17 @@
 // SPDX-License-Identifier: MIT
 // Reading the JSON project file (schema in docs/project_file.md) and building the rail's
-// Network from it: regulator, feed, plane, BOM (derated), load side.
+// Network from it: regulator, feed, plane, BOM (derated), load side; and the plan section's
+// candidates, built as BOM lines are, for the PlanProblem.
 #include "quietrail/io/project_file.hpp"
 
 #include <algorithm>
 #include <cctype>
 #include <cmath>
+#include <cstdint>
+#include <limits>
 #include <map>
 #include <set>
+#include <tuple>
 
 #include "detail/checks.hpp"
 #include "detail/text.hpp"
@@ -31,8 +35,9 @@ using detail::Keys;
 
 // ---------------------------------------------------------------- schema tables
 
-const Keys kTopKeys{"name",      "description", "rail", "target", "regulator", "plane", "mounting",
-                    "libraries", "load",        "view", "bom",    "bom_csv",   "feed"};
+const Keys kTopKeys{"name",      "description", "rail", "target", "regulator", "plane",
+                    "mounting",  "libraries",   "load", "view",   "bom",       "bom_csv",
+                    "feed",      "plan"};
 const Keys kRailKeys{"voltage", "ripple", "max_current", "step", "rise_time", "band", "temperature", "dc_voltage"};
 const Keys kBandKeys{"start", "stop", "points_per_decade"};
 const Keys kTargetKeys{"impedance", "segments", "points"};
@@ -42,6 +47,11 @@ const Keys kPointKeys{"frequency", "impedance"};
 const Keys kLoadKeys{"package_inductance", "package_resistance", "die_capacitance", "die_resistance"};
 const Keys kLineKeys{"part", "count", "mounting", "name"};
 const Keys kFeedKeys{"part", "count", "mounting", "name", "supply_bom"};
+const Keys kPlanKeys{"objective", "seed",         "alternatives", "node_limit", "candidates",
+                     "voltage_margin", "max_per_part", "max_total", "max_area",   "keep"};
+const Keys kCandidateKeys{"families", "packages", "dielectrics", "values", "parts", "exclude"};
+const Keys kListedPartKeys{"part", "max_count"};
+const Keys kFilterKeys{"families", "packages", "dielectrics", "values"};
 // Keys of an inline part beyond the element keys of its kind.
 const Keys kInlinePartKeys{"kind", "description", "package", "dielectric", "rated_voltage", "cost", "area",
                            "esl_includes_mounting"};
@@ -410,6 +420,20 @@ LibraryPart read_inline_part(Context& c, const Json& node, const std::string& p)
   return part;
 }
 
+// The library part with `id`; an unknown id is an error at `pointer` with the nearest ids.
+const LibraryPart& library_part(const Context& c, const std::string& id, const std::string& pointer) {
+  if (const LibraryPart* part = c.library.find(id)) return *part;
+  std::string found = detail::quoted(id);
+  if (c.library.parts().empty()) {
+    found += "; no part library is loaded (give \"libraries\")";
+  } else {
+    std::string near;
+    for (const auto& n : c.library.nearest(id)) near.append(near.empty() ? "" : ", ").append(n);
+    found += "; nearest: " + near;
+  }
+  c.in.fail(pointer, "a part id of the loaded libraries", found);
+}
+
 // The part a line names: a library id or an inline object. `inline_part` is set for inline.
 LibraryPart read_part_reference(Context& c, const Json& line, const std::string& p, bool& is_inline) {
   const Json* node = JsonReader::find(line, "part");
@@ -422,19 +446,7 @@ LibraryPart read_part_reference(Context& c, const Json& line, const std::string&
   }
   is_inline = false;
   const std::string id = c.in.string(*node, pp, "a part id or an inline part object");
-  const LibraryPart* part = c.library.find(id);
-  if (!part) {
-    std::string found = detail::quoted(id);
-    if (c.library.parts().empty()) {
-      found += "; no part library is loaded (give \"libraries\")";
-    } else {
-      std::string near;
-      for (const auto& n : c.library.nearest(id)) near.append(near.empty() ? "" : ", ").append(n);
-      found += "; nearest: " + near;
-    }
-    c.in.fail(pp, "a part id of the loaded libraries", found);
-  }
-  return *part;
+  return library_part(c, id, pp);
 }
 
 struct LineSettings {
@@ -467,6 +479,41 @@ LineSettings read_line_settings(Context& c, const Json& line, const std::string&
   return s;
 }
 
+// The mounting inductance of one copy of `part` and where it came from, by the rules of
+// docs/project_file.md ("mounting"): the line's override, else the project's value for the
+// package, else what the library says or the typical value for the package. A series feed
+// element (`shunt` false) sits in the current path, not in a mounted loop to the planes, so
+// it gets no default mounting. `found` is false when no rule applies (the caller warns).
+// BOM lines and plan candidates both come through here, so a candidate is mounted exactly
+// as the same part on a BOM line would be.
+struct Mounting {
+  double inductance = 0.0;
+  std::string source;
+  bool found = true;
+};
+
+Mounting choose_mounting(const Context& c, const LibraryPart& part, const std::optional<double>& line_override,
+                         bool shunt) {
+  if (line_override) return {*line_override, "line override"};
+  if (!shunt) return {0.0, "none (series element)"};
+  if (part.esl_includes_mounting) return {0.0, "included in the part's ESL (mounted value)"};
+  if (const auto value = project_mounting(c, part.package)) return {*value, "project mounting for " + part.package};
+  if (part.mlcc_package)
+    return {typical_mounting_inductance(*part.mlcc_package),
+            "typical for " + std::string(to_string(*part.mlcc_package)) + " (from memory)"};
+  return {0.0, "none given", false};
+}
+
+// A caution when the rail's temperature is outside the capacitor's dielectric rating.
+std::optional<std::string> temperature_caution(const Context& c, const LibraryPart& part, const std::string& name) {
+  if (part.kind != PartKind::capacitor || part.dielectric == Dielectric::none) return std::nullopt;
+  const TemperatureRange range = rated_temperature_range(part.dielectric);
+  const double t = c.conditions.temperature_c;
+  if (t >= range.low_c && t <= range.high_c) return std::nullopt;
+  return name + " (" + std::string(to_string(part.dielectric)) + ") is rated " + format_value(range.low_c, "") + " to " +
+         format_value(range.high_c, "") + " C; the rail runs at " + format_value(t, "") + " C.";
+}
+
 PlacedPart place_part(Context& c, const LibraryPart& part, bool is_inline, const LineSettings& s, BranchRole role,
                       NodeId from, NodeId to) {
   PlacedPart placed;
@@ -487,29 +534,13 @@ PlacedPart place_part(Context& c, const LibraryPart& part, bool is_inline, const
   if (part.cost > 0.0) placed.cost = part.cost;
   if (part.area > 0.0) placed.area = part.area;
 
-  // Mounting: the line's override, else the project's value for the package, else what the
-  // library says or the typical value for the package. A series feed element sits in the
-  // current path, not in a mounted loop to the planes, so it gets no default mounting.
-  const bool shunt = role != BranchRole::feed;
-  if (s.mounting) {
-    placed.mounting_inductance = *s.mounting;
-    placed.mounting_source = "line override";
-  } else if (!shunt) {
-    placed.mounting_source = "none (series element)";
-  } else if (part.esl_includes_mounting) {
-    placed.mounting_source = "included in the part's ESL (mounted value)";
-  } else if (const auto value = project_mounting(c, part.package)) {
-    placed.mounting_inductance = *value;
-    placed.mounting_source = "project mounting for " + part.package;
-  } else if (part.mlcc_package) {
-    placed.mounting_inductance = typical_mounting_inductance(*part.mlcc_package);
-    placed.mounting_source = "typical for " + std::string(to_string(*part.mlcc_package)) + " (from memory)";
-  } else {
-    placed.mounting_source = "none given";
+  const Mounting mounting = choose_mounting(c, part, s.mounting, role != BranchRole::feed);
+  placed.mounting_inductance = mounting.inductance;
+  placed.mounting_source = mounting.source;
+  if (!mounting.found)
     c.project.warnings.push_back(s.source + ": no mounting inductance for package " +
                                  detail::quoted(part.package.empty() ? "unknown" : part.package) +
                                  "; give \"mounting\" on the line or in the project.");
-  }
 
   // Name: the line's, else the derived one, else the library id (or the kind for an
   // inline part).
@@ -528,14 +559,7 @@ PlacedPart place_part(Context& c, const LibraryPart& part, bool is_inline, const
   if (part.kind == PartKind::capacitor && part.rated_voltage > 0.0 && part.rated_voltage < std::abs(c.project.dc_voltage))
     c.project.warnings.push_back(placed.name + " is rated " + format_value(part.rated_voltage, "V") +
                                  ", below the rail's DC voltage of " + format_value(c.project.dc_voltage, "V") + ".");
-  if (part.kind == PartKind::capacitor && part.dielectric != Dielectric::none) {
-    const TemperatureRange range = rated_temperature_range(part.dielectric);
-    const double t = c.conditions.temperature_c;
-    if (t < range.low_c || t > range.high_c)
-      c.project.warnings.push_back(placed.name + " (" + std::string(to_string(part.dielectric)) + ") is rated " +
-                                   format_value(range.low_c, "") + " to " + format_value(range.high_c, "") +
-                                   " C; the rail runs at " + format_value(t, "") + " C.");
-  }
+  if (auto caution = temperature_caution(c, part, placed.name)) c.project.warnings.push_back(std::move(*caution));
 
   MountedPart mounted{placed.effective, placed.mounting_inductance, placed.count};
   mounted.validate(c.in.file(), s.source);
@@ -673,6 +697,412 @@ void read_load(Context& c, const Json& root) {
   project.load = load;
 }
 
+// ---------------------------------------------------------------- plan section
+
+// Nominal values within this fraction name the same part: the BOM CSV resolution's
+// tolerance (BomCsvOptions::value_tolerance; E-series values written with 2-3 digits).
+constexpr double kValueTolerance = 0.005;
+// A rating equal to voltage_margin * dc_voltage in decimal must not fail by rounding
+// (1.1 * 1.5 is 1.6500000000000001 in binary).
+constexpr double kRatingSlack = 1e-9;
+// The default voltage margin: 1.5x rail voltage for ceramic and polymer parts on
+// low-voltage rails (common practice; a reliability margin, DC bias is modelled apart).
+constexpr double kDefaultVoltageMargin = 1.5;
+// Most copies of one candidate by default (our choice: more than a board area normally
+// holds of one value, few enough to keep the search small).
+constexpr int kDefaultMaxPerPart = 50;
+constexpr int kMaxAlternatives = 50;
+
+// Totals of the parts at the board node (BOM lines and kept lines).
+struct FixedTotals {
+  double cost = 0.0;
+  double area = 0.0;
+  int count = 0;
+};
+
+FixedTotals fixed_totals(const Project& project) {
+  FixedTotals t;
+  for (const auto& part : project.parts) {
+    if (project.roles[static_cast<std::size_t>(part.branch)] != BranchRole::bom) continue;
+    t.cost += part.cost.value_or(0.0) * part.count;
+    t.area += part.area.value_or(0.0) * part.count;
+    t.count += part.count;
+  }
+  return t;
+}
+
+// "1 candidate", "3 candidates".
+std::string counted(std::size_t n, const std::string& noun) {
+  return std::to_string(n) + " " + noun + (n == 1 ? "" : "s");
+}
+
+std::string mm2(double area) { return format_value(area * 1e6, "", 4) + " mm^2"; }
+
+std::string joined(const std::vector<std::string>& items) {
+  std::string out;
+  for (const auto& item : items) out.append(out.empty() ? "" : ", ").append(item);
+  return out;
+}
+
+// A whole number in [low, high] (for counts wider than int: seed, node limit).
+std::uint64_t read_whole(const Context& c, const Json& value, const std::string& p, std::uint64_t low,
+                         std::uint64_t high) {
+  const std::string expected = "a whole number from " + std::to_string(low) + " to " + std::to_string(high);
+  // nlohmann holds a non-negative JSON integer as unsigned; negatives and fractions fail here.
+  if (!value.is_number_unsigned()) c.in.fail(p, expected, describe(value));
+  const auto v = value.get<std::uint64_t>();
+  if (v < low || v > high) c.in.fail(p, expected, describe(value));
+  return v;
+}
+
+// An optional int in [low, high].
+std::optional<int> read_bounded(const Context& c, const Json& object, const std::string& p, std::string_view key,
+                                int low, int high) {
+  const auto v = c.in.optional_integer(object, p, key);
+  if (v && (*v < low || *v > high)) {
+    const std::string range = high == std::numeric_limits<int>::max()
+                                  ? "a whole number >= " + std::to_string(low)
+                                  : "a whole number from " + std::to_string(low) + " to " + std::to_string(high);
+    c.in.fail(child(p, key), range, std::to_string(*v));
+  }
+  return v;
+}
+
+// A list of non-empty strings.
+std::vector<std::string> read_strings(const Context& c, const Json& list, const std::string& p,
+                                      const std::string& what) {
+  c.in.require_array(list, p, "a list of " + what);
+  std::vector<std::string> out;
+  for (std::size_t i = 0; i < list.size(); ++i) out.push_back(c.in.string(list[i], child(p, i), what));
+  return out;
+}
+
+// The distinct strings `key` gives over `parts`, in order.
+template <class Key>
+std::vector<std::string> distinct(const std::vector<const LibraryPart*>& parts, Key key) {
+  std::vector<std::string> out;
+  for (const LibraryPart* part : parts) {
+    std::string k = key(*part);
+    if (std::find(out.begin(), out.end(), k) == out.end()) out.push_back(std::move(k));
+  }
+  return out;
+}
+
+bool same_value(const LibraryPart& part, double value) {
+  return std::abs(matching_value(part) - value) <= kValueTolerance * value;
+}
+
+// Keeps the parts of `pool` for which `keep` holds; returns how many are left.
+template <class Keep>
+std::size_t narrow(std::vector<const LibraryPart*>& pool, Keep keep) {
+  pool.erase(std::remove_if(pool.begin(), pool.end(), [&](const LibraryPart* p) { return !keep(*p); }), pool.end());
+  return pool.size();
+}
+
+// One part given in "parts": where, and its max_count.
+struct ListedPart {
+  const LibraryPart* part = nullptr;
+  std::string source;
+  int max_count = 0;
+};
+
+// The filters of "candidates" applied to the libraries' capacitors, each entry checked to
+// select something (a typo must not silently empty the set), then the voltage rule and the
+// rating dedupe. Returns the chosen parts in library order; notes say what each step left.
+std::vector<const LibraryPart*> filtered_candidates(const Context& c, const Json* node, double min_rating,
+                                                    const std::vector<const LibraryPart*>& excluded,
+                                                    std::vector<std::string>& notes, std::string& summary) {
+  const std::string p = "/plan/candidates";
+  std::vector<const LibraryPart*> capacitors;
+  for (const auto& part : c.library.parts())
+    if (part.kind == PartKind::capacitor) capacitors.push_back(&part);
+  // "parts" alone means those parts: selecting every capacitor beside them would surprise.
+  if (node && JsonReader::find(*node, "parts") &&
+      std::none_of(kFilterKeys.begin(), kFilterKeys.end(), [&](std::string_view k) { return JsonReader::find(*node, k); })) {
+    summary = "only listed parts were asked for, and the list is empty";
+    notes.push_back("Candidates: the listed parts only (no filter given).");
+    return {};
+  }
+  std::vector<const LibraryPart*> pool = capacitors;
+  std::vector<std::string> steps{std::to_string(pool.size()) + " capacitors in the libraries"};
+
+  if (node) {
+    if (const Json* list = JsonReader::find(*node, "families")) {
+      const std::string lp = child(p, "families");
+      const auto families = read_strings(c, *list, lp, "a library family such as \"mlcc\"");
+      const auto known = distinct(capacitors, [](const LibraryPart& part) { return part.family; });
+      std::vector<std::string> wanted;
+      for (std::size_t i = 0; i < families.size(); ++i) {
+        const auto it = std::find_if(known.begin(), known.end(),
+                                     [&](const std::string& k) { return lower(k) == lower(families[i]); });
+        if (it == known.end())
+          c.in.fail(child(lp, i), "a family with capacitors in the loaded libraries: " + joined(known),
+                    detail::quoted(families[i]));
+        wanted.push_back(*it);
+      }
+      const auto n = narrow(pool, [&](const LibraryPart& part) {
+        return std::find(wanted.begin(), wanted.end(), part.family) != wanted.end();
+      });
+      steps.push_back(std::to_string(n) + " in the families " + joined(families));
+    }
+    if (const Json* list = JsonReader::find(*node, "packages")) {
+      const std::string lp = child(p, "packages");
+      const auto packages = read_strings(c, *list, lp, "a package such as \"0402\"");
+      std::set<const LibraryPart*> selected;
+      for (std::size_t i = 0; i < packages.size(); ++i) {
+        // PartLibrary::candidates compares packages as every part look-up does:
+        // case-insensitive, MLCC codes in any spelling. Values are not filtered there.
+        const auto found = c.library.candidates(PartQuery{.value = 1.0, .package = packages[i]});
+        if (found.empty())
+          c.in.fail(child(lp, i),
+                    "a package of the loaded capacitors: " +
+                        joined(distinct(capacitors, [](const LibraryPart& part) { return part.package; })),
+                    detail::quoted(packages[i]));
+        selected.insert(found.begin(), found.end());
+      }
+      const auto n = narrow(pool, [&](const LibraryPart& part) { return selected.count(&part) != 0; });
+      steps.push_back(std::to_string(n) + " in the packages " + joined(packages));
+    }
+    if (const Json* list = JsonReader::find(*node, "dielectrics")) {
+      const std::string lp = child(p, "dielectrics");
+      const auto texts = read_strings(c, *list, lp, "a dielectric such as \"X7R\"");
+      const auto present = distinct(capacitors, [](const LibraryPart& part) { return std::string(to_string(part.dielectric)); });
+      std::vector<Dielectric> wanted;
+      for (std::size_t i = 0; i < texts.size(); ++i) {
+        const auto d = parse_dielectric(texts[i]);
+        if (!d || std::find(present.begin(), present.end(), to_string(*d)) == present.end())
+          c.in.fail(child(lp, i), "a dielectric of the loaded capacitors: " + joined(present), detail::quoted(texts[i]));
+        wanted.push_back(*d);
+      }
+      // Parts without a dielectric have nothing to filter on and pass.
+      const auto n = narrow(pool, [&](const LibraryPart& part) {
+        return part.dielectric == Dielectric::none ||
+               std::find(wanted.begin(), wanted.end(), part.dielectric) != wanted.end();
+      });
+      steps.push_back(std::to_string(n) + " with the dielectrics " + joined(texts) + " (or none)");
+    }
+    if (const Json* list = JsonReader::find(*node, "values")) {
+      const std::string lp = child(p, "values");
+      c.in.require_array(*list, lp, "a list of capacitances such as \"100n\"");
+      std::vector<double> values;
+      std::vector<std::string> texts;
+      for (std::size_t i = 0; i < list->size(); ++i) {
+        const std::string vp = child(lp, i);
+        const double v = c.in.quantity((*list)[i], vp, "F");
+        detail::require_positive(v, c.in.file(), vp, "F");
+        if (std::none_of(capacitors.begin(), capacitors.end(), [&](const LibraryPart* part) { return same_value(*part, v); })) {
+          auto near = c.library.candidates(PartQuery{.value = v});
+          std::vector<std::string> near_values;
+          for (const LibraryPart* part : near) {
+            const std::string text = format_value(matching_value(*part), "F");
+            if (std::find(near_values.begin(), near_values.end(), text) == near_values.end()) near_values.push_back(text);
+            if (near_values.size() == 3) break;
+          }
+          c.in.fail(vp, "a nominal capacitance of a loaded capacitor (within 0.5 %)",
+                    format_value(v, "F") + (near_values.empty() ? "" : "; nearest: " + joined(near_values)));
+        }
+        values.push_back(v);
+        texts.push_back(format_value(v, "F"));
+      }
+      const auto n = narrow(pool, [&](const LibraryPart& part) {
+        return std::any_of(values.begin(), values.end(), [&](double v) { return same_value(part, v); });
+      });
+      steps.push_back(std::to_string(n) + " with the values " + joined(texts));
+    }
+    if (!excluded.empty()) {
+      const auto n = narrow(pool, [&](const LibraryPart& part) {
+        return std::find(excluded.begin(), excluded.end(), &part) == excluded.end();
+      });
+      steps.push_back(std::to_string(n) + " after the exclusions");
+    }
+  }
+
+  const auto rated = narrow(pool, [&](const LibraryPart& part) { return part.rated_voltage >= min_rating * (1.0 - kRatingSlack); });
+  steps.push_back(std::to_string(rated) + " rated at least " + format_value(min_rating, "V"));
+
+  // Of parts alike but for their rating, the lowest adequate rating (then the lower cost,
+  // then the id): a higher rating of the same value costs more and differs only in its
+  // smaller DC-bias loss.
+  using Group = std::tuple<std::string, std::string, Dielectric, long long>;
+  std::map<Group, const LibraryPart*> best;
+  for (const LibraryPart* part : pool) {
+    const std::string package =
+        part->mlcc_package ? "mlcc " + std::string(to_string(*part->mlcc_package)) : lower(part->package);
+    // Femtofarad steps: values that went through decimal parsing group exactly.
+    const Group group{part->family, package, part->dielectric, std::llround(matching_value(*part) * 1e15)};
+    const auto it = best.find(group);
+    const auto key = [](const LibraryPart* q) { return std::make_tuple(q->rated_voltage, q->cost, std::string_view(q->id)); };
+    if (it == best.end()) best.emplace(group, part);
+    else if (key(part) < key(it->second)) it->second = part;
+  }
+  std::set<const LibraryPart*> kept;
+  for (const auto& [group, part] : best) kept.insert(part);
+  const auto n = narrow(pool, [&](const LibraryPart& part) { return kept.count(&part) != 0; });
+  steps.push_back(std::to_string(n) + " after keeping the lowest adequate rating of each family, package, dielectric and value");
+
+  summary = joined(steps);
+  notes.push_back("Candidates from the filters: " + summary + ".");
+  return pool;
+}
+
+// The parts given in "candidates/parts": each a capacitor that meets the voltage rule.
+std::vector<ListedPart> listed_parts(const Context& c, const Json* node, double min_rating, double dc_voltage,
+                                     double margin, int max_per_part) {
+  std::vector<ListedPart> out;
+  const Json* list = node ? JsonReader::find(*node, "parts") : nullptr;
+  if (!list) return out;
+  const std::string lp = "/plan/candidates/parts";
+  c.in.require_array(*list, lp, "a list of parts: ids or {\"part\": id, \"max_count\": n}");
+  for (std::size_t i = 0; i < list->size(); ++i) {
+    const Json& entry = (*list)[i];
+    const std::string ep = child(lp, i);
+    ListedPart listed;
+    listed.source = ep;
+    listed.max_count = max_per_part;
+    std::string id_pointer = ep;
+    std::string id;
+    if (entry.is_object()) {
+      c.in.check_keys(entry, ep, kListedPartKeys, "a listed part");
+      id_pointer = child(ep, "part");
+      id = c.in.required_string(entry, ep, "part", "a part id");
+      if (auto m = read_bounded(c, entry, ep, "max_count", 0, std::numeric_limits<int>::max())) listed.max_count = *m;
+    } else {
+      id = c.in.string(entry, ep, "a part id or {\"part\": id, \"max_count\": n}");
+    }
+    const LibraryPart& part = library_part(c, id, id_pointer);
+    if (part.kind != PartKind::capacitor)
+      c.in.fail(id_pointer, "a capacitor (beads and inductors are never candidates)",
+                detail::quoted(id) + ", a " + std::string(to_string(part.kind)));
+    if (!(part.rated_voltage >= min_rating * (1.0 - kRatingSlack)))
+      c.in.fail(ep,
+                "a part rated at least " + format_value(min_rating, "V") + " (voltage_margin " +
+                    format_value(margin, "", 4) + " x dc_voltage " + format_value(std::abs(dc_voltage), "V") + ")",
+                detail::quoted(id) + " rated " + format_value(part.rated_voltage, "V"));
+    for (const auto& earlier : out)
+      if (earlier.part == &part) c.in.fail(id_pointer, "a part listed once", detail::quoted(id) + " is listed twice");
+    listed.part = &part;
+    out.push_back(std::move(listed));
+  }
+  return out;
+}
+
+PlanSection read_plan(Context& c, const Json& node) {
+  const std::string p = "/plan";
+  PlanSection plan;
+  if (auto text = c.in.optional_string(node, p, "objective", "\"cost\", \"count\" or \"area\"")) {
+    const auto objective = parse_plan_objective(*text);
+    if (!objective) c.in.fail(child(p, "objective"), "\"cost\", \"count\" or \"area\"", detail::quoted(*text));
+    plan.objective = *objective;
+  }
+  if (const Json* v = JsonReader::find(node, "seed"))
+    plan.seed = read_whole(c, *v, child(p, "seed"), 0, std::numeric_limits<std::uint64_t>::max());
+  if (auto v = read_bounded(c, node, p, "alternatives", 1, kMaxAlternatives)) plan.alternatives = static_cast<std::size_t>(*v);
+  if (const Json* v = JsonReader::find(node, "node_limit"))
+    plan.node_limit = static_cast<std::size_t>(
+        read_whole(c, *v, child(p, "node_limit"), 1, std::numeric_limits<std::size_t>::max()));
+  plan.voltage_margin = c.in.optional_quantity(node, p, "voltage_margin", "").value_or(kDefaultVoltageMargin);
+  require_input(std::isfinite(plan.voltage_margin) && plan.voltage_margin >= 1.0, {c.in.file(), child(p, "voltage_margin")},
+                "a voltage margin >= 1 (a factor on the rail's DC voltage)", format_value(plan.voltage_margin, "", 4));
+  plan.max_per_part = read_bounded(c, node, p, "max_per_part", 0, std::numeric_limits<int>::max()).value_or(kDefaultMaxPerPart);
+  plan.limits.max_total = read_bounded(c, node, p, "max_total", 1, std::numeric_limits<int>::max());
+  if (const Json* a = JsonReader::find(node, "max_area")) {
+    const std::string ap = child(p, "max_area");
+    const double area = c.in.area(*a, ap);
+    detail::require_positive(area, c.in.file(), ap, "m^2");
+    const FixedTotals fixed = fixed_totals(c.project);
+    if (fixed.area > area)
+      c.in.fail(ap,
+                "a max_area at least the area of the parts already at the board node (bom, bom_csv, keep: " +
+                    mm2(fixed.area) + ")",
+                mm2(area) + ", less than the " + mm2(fixed.area) + " already placed (conflicting constraints)");
+    plan.limits.max_area = area;
+  }
+
+  const double dc = c.project.dc_voltage;
+  const double min_rating = plan.voltage_margin * std::abs(dc);
+  plan.notes.push_back("Voltage rule: every candidate is rated at least " + format_value(plan.voltage_margin, "", 4) +
+                       " x " + format_value(std::abs(dc), "V") + " = " + format_value(min_rating, "V") +
+                       " (voltage_margin x dc_voltage; 1.5x is common practice for ceramic and polymer parts on "
+                       "low-voltage rails, a reliability margin; DC-bias loss is modelled separately).");
+
+  const std::string cp = "/plan/candidates";
+  const Json* cand = JsonReader::find(node, "candidates");
+  if (cand) {
+    c.in.require_object(*cand, cp, "the candidate filters {\"families\", \"packages\", \"dielectrics\", \"values\", \"parts\", \"exclude\"}");
+    c.in.check_keys(*cand, cp, kCandidateKeys, "the candidate filters");
+  }
+  const auto listed = listed_parts(c, cand, min_rating, dc, plan.voltage_margin, plan.max_per_part);
+  // Excluded ids: known, and not also listed (that would contradict itself).
+  std::vector<const LibraryPart*> excluded;
+  if (const Json* list = cand ? JsonReader::find(*cand, "exclude") : nullptr) {
+    const std::string lp = child(cp, "exclude");
+    const auto ids = read_strings(c, *list, lp, "a part id");
+    for (std::size_t i = 0; i < ids.size(); ++i) {
+      const LibraryPart* part = &library_part(c, ids[i], child(lp, i));
+      if (std::any_of(listed.begin(), listed.end(), [&](const ListedPart& l) { return l.part == part; }))
+        c.in.fail(child(lp, i), "an id not also listed in \"parts\"", detail::quoted(ids[i]) + " is in both");
+      excluded.push_back(part);
+    }
+  }
+  std::string summary;
+  const auto filtered = filtered_candidates(c, cand, min_rating, excluded, plan.notes, summary);
+  if (!listed.empty())
+    plan.notes.push_back(counted(listed.size(), "listed part") +
+                         " added as given (not filtered, not deduplicated by rating).");
+
+  // Library order, each part once; a listed part keeps its own source and max_count.
+  for (const auto& part : c.library.parts()) {
+    const auto l = std::find_if(listed.begin(), listed.end(), [&](const ListedPart& x) { return x.part == &part; });
+    const bool chosen = std::find(filtered.begin(), filtered.end(), &part) != filtered.end();
+    if (l == listed.end() && !chosen) continue;
+
+    PlanCandidate candidate;
+    PlanCandidateFacts facts;
+    facts.source = l != listed.end() ? l->source : cp;
+    candidate.max_count = l != listed.end() ? l->max_count : plan.max_per_part;
+    candidate.library_id = part.id;
+    candidate.description = part.description.empty() ? part.id : part.description;
+    const Mounting mounting = choose_mounting(c, part, std::nullopt, true);
+    candidate.part = MountedPart{effective_part(part, c.conditions), mounting.inductance, 1};
+    candidate.part.validate(c.in.file(), facts.source);
+    candidate.cost = part.cost;
+    candidate.area = part.area;
+    candidate.nominal_capacitance = std::get<Capacitor>(part.nominal).capacitance;
+    // Its own id, unless a branch of the fixed network (a BOM line of the same part) has it.
+    candidate.name = unique_name(c, c.names.count(part.id) != 0 ? part.id + "_plan" : part.id);
+
+    facts.family = part.family;
+    facts.package = part.package;
+    facts.dielectric = part.dielectric;
+    facts.rated_voltage = part.rated_voltage;
+    facts.mounting_source = mounting.source;
+    if (!mounting.found)
+      plan.warnings.push_back("Candidate " + candidate.name + ": no mounting inductance for package " +
+                              detail::quoted(part.package.empty() ? "unknown" : part.package) +
+                              "; give it in the project's \"mounting\".");
+    if (auto caution = temperature_caution(c, part, "Candidate " + candidate.name))
+      plan.warnings.push_back(std::move(*caution));
+    plan.candidates.push_back(std::move(candidate));
+    plan.candidate_facts.push_back(std::move(facts));
+  }
+
+  if (plan.candidates.empty()) {
+    std::string found;
+    if (c.library.parts().empty()) found = "none: no part library is loaded (give \"libraries\")";
+    else found = "none: " + summary;
+    c.in.fail(cp, "at least one capacitor part from the libraries that passes the filters and the voltage rule", found);
+  }
+  if (std::all_of(plan.candidates.begin(), plan.candidates.end(), [](const PlanCandidate& x) { return x.max_count == 0; })) {
+    if (plan.max_per_part == 0)
+      c.in.fail(child(p, "max_per_part"), "a max_per_part above 0, or a listed part with a max_count above 0",
+                "0 and no listed part allowed any copy");
+    c.in.fail(child(cp, "parts"), "at least one candidate with a max_count above 0", "every listed part has max_count 0");
+  }
+  plan.notes.push_back(counted(plan.candidates.size(), "candidate") + ", at most " +
+                       std::to_string(plan.max_per_part) + " copies each unless listed otherwise.");
+  return plan;
+}
+
 Project read_document(Context& c, const Json& root) {
   c.in.require_object(root, "", "a project");
   c.in.check_keys(root, "", kTopKeys, "a project file");
@@ -705,17 +1135,28 @@ Project read_document(Context& c, const Json& root) {
   read_feed(c, root);
   read_plane(c, root);
 
+  // With a plan section the BOM is what the plan adds to, and may be empty.
+  const Json* plan = JsonReader::find(root, "plan");
+  if (plan) {
+    c.in.require_object(*plan, "/plan", "the plan constraints (an object)");
+    c.in.check_keys(*plan, "/plan", kPlanKeys, "the plan section");
+  }
   const Json* bom = JsonReader::find(root, "bom");
   const Json* csv = JsonReader::find(root, "bom_csv");
-  if (!bom && !csv) c.in.fail("/bom", "a \"bom\" list of parts or a \"bom_csv\" file", "neither");
+  if (!bom && !csv && !plan) c.in.fail("/bom", "a \"bom\" list of parts or a \"bom_csv\" file", "neither");
   const std::size_t before = project.parts.size();
   if (bom) read_lines(c, *bom, "/bom", BranchRole::bom, project.board);
   read_bom_csv_lines(c, root);
-  if (project.parts.size() == before) c.in.fail("/bom", "a BOM with at least one part", "an empty list");
+  if (project.parts.size() == before && !plan) c.in.fail("/bom", "a BOM with at least one part", "an empty list");
+  // Kept lines are fixed parts like BOM lines (sources "/plan/keep/<i>").
+  if (plan)
+    if (const Json* keep = JsonReader::find(*plan, "keep")) read_lines(c, *keep, "/plan/keep", BranchRole::bom, project.board);
 
   read_load(c, root);
   project.port = project.view == LoadView::die ? *project.die : project.board;
   check_topology(project.network, project.port, c.in.file());
+  // Candidates last, so their names avoid every branch of the fixed network.
+  if (plan) project.plan = read_plan(c, *plan);
   if (!project.libraries.empty())
     project.notes.push_back("Capacitance derated to " + format_value(c.conditions.dc_voltage, "V") + " DC and " +
                             format_value(c.conditions.temperature_c, "") + " C (part library DC-bias and temperature models).");
@@ -750,6 +1191,33 @@ CheckOptions Project::check_options() const {
   CheckOptions options;
   options.grid = band;
   options.branch_curves = true;
+  return options;
+}
+
+PlanProblem Project::plan_problem() const {
+  if (!plan) throw InputError({file, "/plan"}, "a \"plan\" section (the constraints for quietrail plan)", "none");
+  PlanProblem problem;
+  problem.network = network;
+  problem.board = board;
+  problem.port = port;
+  problem.target = target;
+  problem.band = band;
+  problem.candidates = plan->candidates;
+  problem.limits = plan->limits;
+  problem.objective = plan->objective;
+  const FixedTotals fixed = fixed_totals(*this);
+  problem.fixed_cost = fixed.cost;
+  problem.fixed_area = fixed.area;
+  problem.fixed_count = fixed.count;
+  return problem;
+}
+
+PlanOptions Project::plan_options() const {
+  if (!plan) throw InputError({file, "/plan"}, "a \"plan\" section (the constraints for quietrail plan)", "none");
+  PlanOptions options;
+  options.seed = plan->seed;
+  options.alternatives = plan->alternatives;
+  options.node_limit = plan->node_limit;
   return options;
 }
 

@@ -1,8 +1,11 @@
 // SPDX-License-Identifier: MIT
-// The JSON project file of the check job: a rail, its target, the regulator, plane, load
-// side and BOM, built into a Network ready for run_check. Schema: docs/project_file.md.
+// The JSON project file of the check and plan jobs: a rail, its target, the regulator, plane,
+// load side, BOM and plan constraints, built into a Network ready for run_check and a
+// PlanProblem ready for run_plan (plan/plan.hpp). Schema: docs/project_file.md.
 #pragma once
 
+#include <cstddef>
+#include <cstdint>
 #include <filesystem>
 #include <optional>
 #include <string>
@@ -15,6 +18,7 @@
 #include "quietrail/io/part_library.hpp"
 #include "quietrail/models/element.hpp"
 #include "quietrail/network/network.hpp"
+#include "quietrail/plan/plan.hpp"
 
 namespace quietrail {
 
@@ -95,6 +99,50 @@ struct PlacedPart {
   std::optional<double> area{};
 };
 
+/// Facts about one plan candidate that PlanCandidate does not carry, for reports.
+struct PlanCandidateFacts {
+  /// Where it was chosen: "/plan/candidates/parts/<i>" for a listed part, else
+  /// "/plan/candidates" (selected by the filters).
+  std::string source;
+  /// Library family ("mlcc", "bulk"), package as written, dielectric and rated DC voltage (V).
+  std::string family;
+  std::string package;
+  Dielectric dielectric = Dielectric::none;
+  double rated_voltage = 0.0;
+  /// Where the mounting inductance came from, as PlacedPart::mounting_source.
+  std::string mounting_source;
+};
+
+/// The project's `plan` section: what `quietrail plan` may add to the project's network and
+/// under which limits. The candidates are built like BOM lines (derated, mounted).
+struct PlanSection {
+  /// What to minimise ("objective", default cost).
+  PlanObjective objective = PlanObjective::cost;
+  /// Seed of the search's random perturbations ("seed", default 1, as PlanOptions).
+  std::uint64_t seed = 1;
+  /// Distinct best selections to report ("alternatives", 1..50, default 5 as PlanOptions).
+  std::size_t alternatives = 5;
+  /// Branch-and-bound nodes per search ("node_limit", >= 1, default 2,000,000 as PlanOptions).
+  std::size_t node_limit = 2'000'000;
+  /// A candidate must be rated at least voltage_margin * |dc_voltage| ("voltage_margin",
+  /// >= 1, default 1.5: common practice for ceramic and polymer parts on low-voltage rails).
+  double voltage_margin = 1.5;
+  /// Most copies of one candidate ("max_per_part", >= 0, default 50: our choice); a listed
+  /// part's "max_count" overrides it.
+  int max_per_part = 50;
+  /// Count and area limits ("max_total", "max_area").
+  PlanLimits limits{};
+  /// The candidates, in library order, and per candidate (same index) its facts.
+  std::vector<PlanCandidate> candidates;
+  std::vector<PlanCandidateFacts> candidate_facts;
+  /// How the candidates were chosen, one sentence each: the voltage rule, how many library
+  /// capacitors passed each filter, the rating dedupe.
+  std::vector<std::string> notes;
+  /// Cautions about candidates (no mounting inductance known, outside the dielectric's
+  /// temperature range), one sentence each.
+  std::vector<std::string> warnings;
+};
+
 /// A project file after reading, validation and network building.
 struct Project {
   /// "name": used in reports and output file names.
@@ -136,7 +184,8 @@ struct Project {
   /// Per branch, in branch order: its role and the facts run_check needs (BranchInfo).
   std::vector<BranchRole> roles;
   std::vector<BranchInfo> branch_info;
-  /// The placed parts: feed and supply parts first, then the BOM lines, in file order.
+  /// The placed parts: feed and supply parts first, then the BOM lines (`bom`, `bom_csv`,
+  /// then `plan.keep`), in file order.
   std::vector<PlacedPart> parts;
 
   /// The part library files read, resolved paths, in order.
@@ -149,8 +198,24 @@ struct Project {
   /// rated voltage is below the rail's DC voltage), one sentence each.
   std::vector<std::string> warnings;
 
+  /// The `plan` section, when given.
+  std::optional<PlanSection> plan{};
+
   /// Options for run_check: the band, refinement defaults and per-branch curves on.
   CheckOptions check_options() const;
+
+  /// The planning problem of the `plan` section: this network (regulator, plane, feed,
+  /// BOM and kept lines, load side) as the fixed network, the candidates at the board node,
+  /// the target at the view's port, the band, the limits and the objective. fixed_cost,
+  /// fixed_area and fixed_count sum cost * count, area * count and count over the parts
+  /// at the board node (BranchRole::bom: `bom`, `bom_csv`, `plan.keep`); a part without a
+  /// cost or area adds 0. Throws InputError (field "/plan") when there is no plan section.
+  PlanProblem plan_problem() const;
+
+  /// Options for run_plan from the plan section: seed, alternatives and node_limit; the rest
+  /// are PlanOptions defaults. Throws InputError (field "/plan") when there is no plan
+  /// section.
+  PlanOptions plan_options() const;
 };
 
 /// Reads a project file (schema: docs/project_file.md), its part libraries and BOM CSV,
@@ -166,7 +231,11 @@ struct Project {
 /// line): unreadable file; malformed JSON (line and column); a key given twice; an unknown
 /// key; a missing or mistyped field; an unknown part id (with the nearest ids); a count
 /// below 1; a reversed or empty band; a zero or negative target; a ripple of 0 or over
-/// 100 %; a BOM with no parts; a die view without a load side; a library or BOM CSV error.
+/// 100 %; a BOM with no parts (allowed with a `plan` section); a die view without a load
+/// side; a library or BOM CSV error; in `plan`: an unknown objective, a number out of its
+/// range, a filter entry that selects no library capacitor, a listed part that is not a
+/// capacitor or fails the voltage rule, no candidate left, every max_count 0, fixed parts
+/// already above max_area.
 Project read_project_file(const std::filesystem::path& path);
 
 /// As read_project_file, from JSON text in memory. `file` names the source in messages;
