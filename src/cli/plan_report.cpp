@@ -8,6 +8,9 @@
 #include <algorithm>
 #include <cctype>
 #include <cmath>
+#include <cstdlib>
+#include <optional>
+#include <string_view>
 #include <system_error>
 #include <variant>
 
@@ -58,7 +61,7 @@ std::string objective_axis_label(PlanObjective objective) {
   switch (objective) {
     case PlanObjective::cost: return "Relative cost";
     case PlanObjective::count: return "Parts placed";
-    case PlanObjective::area: return "Footprint area (mm^2)";
+    case PlanObjective::area: return "Footprint area (mm\xC2\xB2)";  // U+00B2: the SVG is UTF-8
   }
   return {};
 }
@@ -85,14 +88,6 @@ std::vector<std::size_t> chosen(const Selection& s) {
   for (std::size_t k = 0; k < s.counts.size(); ++k)
     if (s.counts[k] > 0) out.push_back(k);
   return out;
-}
-
-// "3 x c100n + 2 x c10u".
-std::string counts_text(const PlanProblem& problem, const Selection& s) {
-  std::string out;
-  for (const std::size_t k : chosen(s))
-    out.append(out.empty() ? "" : " + ").append(fmt::format("{} x {}", s.counts[k], problem.candidates[k].name));
-  return out.empty() ? std::string("nothing") : out;
 }
 
 // A path that names `target` from inside `directory`: relative where one exists.
@@ -136,10 +131,32 @@ std::string worst_text(const Selection& s) {
                      format_value(s.worst_frequency, "Hz", 4), s.verified ? " (refined peaks, verified)" : "");
 }
 
+// The objective as a noun for headings and plot titles ("Cost against margin").
+std::string objective_noun(PlanObjective objective) {
+  switch (objective) {
+    case PlanObjective::cost: return "cost";
+    case PlanObjective::count: return "parts";
+    case PlanObjective::area: return "area";
+  }
+  return {};
+}
+
+std::string front_heading(PlanObjective objective) {
+  std::string text = objective_noun(objective) + " against margin";
+  text[0] = static_cast<char>(std::toupper(static_cast<unsigned char>(text[0])));
+  return text;
+}
+
 std::string bound_text(const PlanRun& run) {
   const PlanResult& r = run.result;
   if (r.status == PlanStatus::infeasible) return "no selection within the limits meets the target";
-  if (r.status == PlanStatus::optimal) return "proven optimal: no selection within the limits costs less";
+  if (r.status == PlanStatus::optimal) {
+    switch (run.problem.objective) {
+      case PlanObjective::cost: return "proven optimal: no selection within the limits costs less";
+      case PlanObjective::count: return "proven optimal: no selection within the limits has fewer parts";
+      case PlanObjective::area: return "proven optimal: no selection within the limits takes less area";
+    }
+  }
   return fmt::format("search stopped at its node limit; best bound {}, gap {:.3g} %",
                      objective_text(run.problem.objective, r.bound), 100.0 * r.gap);
 }
@@ -182,14 +199,104 @@ std::vector<std::string> margin_rates(const PlanRun& run, const std::vector<cons
   return out;
 }
 
-std::string margin_rate_unit(PlanObjective objective) {
+// What an alternative changes against the chosen parts: "+1 x a, -1 x b" (`times` and
+// `minus` let the HTML use the proper signs; part ids hold an "x" of their own).
+std::string change_text(const PlanProblem& problem, const Selection& chosen_parts, const Selection& s,
+                        std::string_view times, std::string_view minus) {
+  std::string out;
+  for (std::size_t k = 0; k < problem.candidates.size(); ++k) {
+    const int from = k < chosen_parts.counts.size() ? chosen_parts.counts[k] : 0;
+    const int to = k < s.counts.size() ? s.counts[k] : 0;
+    if (from == to) continue;
+    out.append(out.empty() ? "" : ", ")
+        .append(to > from ? std::string_view("+") : minus)
+        .append(std::to_string(std::abs(to - from)))
+        .append(times)
+        .append(problem.candidates[k].name);
+  }
+  return out.empty() ? std::string("the chosen parts") : out;
+}
+
+// ---------------------------------------------------------------- HTML cells
+// The page is UTF-8 and read in a browser: a no-break space keeps "4.85 mΩ" on one line in
+// narrow table columns, ohm is written Ω and micro µ (as on the plot axes), area in mm².
+constexpr std::string_view kNoBreakSpace = "\xC2\xA0";
+constexpr std::string_view kTimes = " \xC3\x97 ";  // U+00D7 multiplication sign
+constexpr std::string_view kMinus = "\xE2\x88\x92";  // U+2212 minus sign
+
+std::string html_value(double value, std::string_view unit, int digits) {
+  std::string text = format_value(value, unit, digits);
+  const std::size_t space = text.find(' ');
+  if (space == std::string::npos) return text;
+  std::string symbol = text.substr(space + 1);  // prefix and unit, e.g. "uF", "mohm"
+  if (symbol.size() == unit.size() + 1 && symbol[0] == 'u') symbol.replace(0, 1, "\xC2\xB5");  // U+00B5
+  if (unit == "ohm" && symbol.ends_with("ohm")) symbol.replace(symbol.size() - 3, 3, "\xCE\xA9");  // U+03A9
+  return text.substr(0, space).append(kNoBreakSpace).append(symbol);
+}
+
+std::string html_optional(const std::optional<double>& value, std::string_view unit, int digits) {
+  return value && std::isfinite(*value) ? html_value(*value, unit, digits) : std::string("-");
+}
+
+std::string html_area(double area) {
+  return fmt::format("{:.4g}", area * 1e6).append(kNoBreakSpace).append("mm\xC2\xB2");  // U+00B2
+}
+
+// A selection's three measures with the objective's first, so each table leads with what
+// was minimised: headers, then the cells of one selection.
+std::vector<std::string> measure_headers(PlanObjective objective) {
   switch (objective) {
-    case PlanObjective::cost: return "dB per unit of cost";
-    case PlanObjective::count: return "dB per part";
-    case PlanObjective::area: return "dB per mm^2";
+    case PlanObjective::cost: return {"Cost", "Parts", "Area"};
+    case PlanObjective::count: return {"Parts", "Cost", "Area"};
+    case PlanObjective::area: return {"Area", "Cost", "Parts"};
   }
   return {};
 }
+
+std::vector<std::string> measure_cells(PlanObjective objective, double cost, int count, double area) {
+  const std::string c = fmt::format("{:.4g}", cost);
+  const std::string n = std::to_string(count);
+  const std::string a = html_area(area);
+  switch (objective) {
+    case PlanObjective::cost: return {c, n, a};
+    case PlanObjective::count: return {n, c, a};
+    case PlanObjective::area: return {a, c, n};
+  }
+  return {};
+}
+
+std::string objective_goal(PlanObjective objective) {
+  switch (objective) {
+    case PlanObjective::cost: return "least relative cost";
+    case PlanObjective::count: return "fewest parts";
+    case PlanObjective::area: return "least footprint area";
+  }
+  return {};
+}
+
+std::string margin_gain_header(PlanObjective objective) {
+  switch (objective) {
+    case PlanObjective::cost: return "Margin gained per unit of cost";
+    case PlanObjective::count: return "Margin gained per part";
+    case PlanObjective::area: return "Margin gained per mm\xC2\xB2";
+  }
+  return {};
+}
+
+// True when some candidate's name differs from its library id (a "<id>_plan" rename), so
+// the tables need both columns.
+bool names_differ(const PlanProblem& problem) {
+  return std::any_of(problem.candidates.begin(), problem.candidates.end(),
+                     [](const PlanCandidate& c) { return c.name != c.library_id && !c.library_id.empty(); });
+}
+
+// mounting_text for the page: the value in the HTML's form, or "in ESL".
+std::string mounting_html(const PlanRun& run, std::size_t k) {
+  const std::string text = mounting_text(run, k);
+  return text == "in ESL" ? text : html_value(run.problem.candidates[k].part.mounting_inductance, "H", 3);
+}
+
+std::string part_text(const PlanCandidate& c) { return c.library_id.empty() ? c.name : c.library_id; }
 
 }  // namespace
 
@@ -391,7 +498,7 @@ std::string front_svg(const PlanRun& run) {
     return a->selection->objective < b->selection->objective;
   });
 
-  PlotSeries front{.name = "least " + std::string(to_string(objective)) + " for each margin", .x = {}, .y = {},
+  PlotSeries front{.name = objective_goal(objective) + " for each margin", .x = {}, .y = {},
                    .style = PlotSeries::Style::total};
   std::vector<PlotMarker> markers;
   double x_low = 0.0, x_high = 0.0, y_low = 1.0, y_high = 1.0;
@@ -402,7 +509,9 @@ std::string front_svg(const PlanRun& run) {
     front.y.push_back(y);
     markers.push_back(PlotMarker{.x = x,
                                  .y = y,
-                                 .label = fmt::format("{:g} dB asked, {:.1f} dB", p->margin_db, p->achieved_margin_db),
+                                 // The margin achieved: short, so labels clear the line;
+                                 // the margin asked is in the table below the plot.
+                                 .label = fmt::format("{:.1f} dB", p->achieved_margin_db),
                                  .violation = y > 1.0});
     if (!(x > 0.0) || !std::isfinite(x) || !(y > 0.0) || !std::isfinite(y)) continue;
     x_low = x_low > 0.0 ? std::min(x_low, x) : x;
@@ -411,12 +520,14 @@ std::string front_svg(const PlanRun& run) {
     y_high = std::max(y_high, y);
   }
   PlotOptions options;
-  options.title = run.project.name + ": worst |Z|/Z_target against " + std::string(to_string(objective));
+  options.title = run.project.name + ": worst |Z|/Z_target against " + objective_noun(objective);
   options.id = "plan-front";
   options.x_label = objective_axis_label(objective);
   options.x_unit = "";
   options.y_label = "worst |Z|/Z_target";
-  options.y_unit = "";
+  options.y_unit = "";  // a ratio: plain tick numbers (0.5, 1, 2)
+  options.marker_legend = "selection found (its margin in dB)";
+  options.violation_legend = "selection above the target";
   // Room around the points, so markers at the ends stay inside; a single point still gets a span.
   if (x_high > 0.0) {
     options.x_min = x_low / 1.25;
@@ -440,6 +551,8 @@ std::string plan_html(const PlanRun& run, const std::string& front, const std::s
   const PlanObjective objective = problem.objective;
   using Align = HtmlReport::Align;
   using RowTone = HtmlReport::RowTone;
+  const bool with_names = names_differ(problem);
+  const auto measures = measure_headers(objective);
 
   HtmlReport page("Plan of " + run.project.name);
   std::string verdict = r.message;
@@ -450,80 +563,124 @@ std::string plan_html(const PlanRun& run, const std::string& front, const std::s
 
   page.add_heading(r.status == PlanStatus::infeasible ? "Best selection found (does not meet the target)"
                                                       : "Chosen parts");
-  {
+  if (chosen(best).empty()) {
+    page.add_paragraph("No part added: the fixed network alone is the answer.");
+  } else {
+    // The parts to place, as a BOM reads: what each is and what it costs; where each
+    // mounting value came from is in the candidate list below.
+    std::vector<std::string> headers{"Part"};
+    if (with_names) headers.emplace_back("Name");
+    headers.insert(headers.end(), {"Count", "C nominal", "C effective", "Mounting", "Cost each", "Cost", "Area"});
+    std::vector<Align> align{Align::left};
+    if (with_names) align.push_back(Align::left);
+    align.insert(align.end(), 7, Align::right);
     std::vector<std::vector<std::string>> rows;
     for (const std::size_t k : chosen(best)) {
       const PlanCandidate& c = problem.candidates[k];
       const int n = best.counts[k];
-      const auto eff = effective_capacitance(c);
-      rows.push_back({c.name, c.library_id.empty() ? c.description : c.library_id, std::to_string(n),
-                      c.nominal_capacitance > 0.0 ? format_value(c.nominal_capacitance, "F", 3) : "-",
-                      eff ? format_value(*eff, "F", 3) : "-", fmt::format("{:.4g}", c.cost),
-                      fmt::format("{:.4g}", c.cost * n), mm2_text(c.area), mounting_text(run, k),
-                      mounting_source(run, k)});
+      std::vector<std::string> row{part_text(c)};
+      if (with_names) row.push_back(c.name);
+      row.insert(row.end(), {std::to_string(n),
+                             c.nominal_capacitance > 0.0 ? html_value(c.nominal_capacitance, "F", 3) : "-",
+                             html_optional(effective_capacitance(c), "F", 3), mounting_html(run, k),
+                             fmt::format("{:.4g}", c.cost), fmt::format("{:.4g}", c.cost * n), html_area(c.area * n)});
+      rows.push_back(std::move(row));
     }
-    if (rows.empty()) {
-      page.add_paragraph("No part added: the fixed network alone is the answer.");
-    } else {
-      page.add_table({"Name", "Part", "Count", "C nominal", "C effective", "Cost each", "Cost", "Area each",
-                      "Mounting", "Mounting from"},
-                     rows, {},
-                     {Align::left, Align::left, Align::right, Align::right, Align::right, Align::right, Align::right,
-                      Align::right, Align::right, Align::left});
-    }
+    std::vector<std::string> total{"Total added"};
+    if (with_names) total.emplace_back();
+    total.insert(total.end(), {std::to_string(best.count), "", "", "", "", fmt::format("{:.4g}", best.cost),
+                               html_area(best.area)});
+    rows.push_back(std::move(total));
+    page.add_table(headers, rows, {}, align);
+    page.add_paragraph(
+        "C effective: the capacitance at the rail's DC voltage and temperature (derated). Mounting: the inductance "
+        "the mounting adds to each copy, or \"in ESL\" when the part's ESL already includes it. Cost is relative, "
+        "in the part library's units; area is the footprint.");
   }
-
   page.add_heading("Totals");
-  page.add_key_values({
-      {"Objective", std::string(to_string(objective)) + ": " + objective_text(objective, best.objective)},
-      {"Added", fmt::format("{} parts, cost {:.4g}, area {}", best.count, best.cost, mm2_text(best.area))},
-      {"Fixed parts at the board node",
-       fmt::format("{} parts, cost {:.4g}, area {}", problem.fixed_count, problem.fixed_cost, mm2_text(problem.fixed_area))},
-      {"With the fixed parts", fmt::format("{} parts, cost {:.4g}, area {}", best.count + problem.fixed_count,
-                                           best.cost + problem.fixed_cost, mm2_text(best.area + problem.fixed_area))},
-      {"Worst", worst_text(best)},
-      {"Search", bound_text(run)},
-  });
+  {
+    std::vector<std::pair<std::string, std::string>> facts{
+        {"Objective", r.status == PlanStatus::infeasible
+                          ? objective_goal(objective) + ", among selections that meet the target; none does, so "
+                                                        "this is the selection found closest to it"
+                          : objective_goal(objective) + ": " +
+                                (objective == PlanObjective::area ? html_area(best.objective)
+                                                                  : objective_text(objective, best.objective))},
+        {"Added parts", fmt::format("{} parts, cost {:.4g}, area {}", best.count, best.cost, html_area(best.area))}};
+    if (problem.fixed_count > 0) {
+      facts.emplace_back("Fixed parts at the board node",
+                         fmt::format("{} parts, cost {:.4g}, area {}", problem.fixed_count, problem.fixed_cost,
+                                     html_area(problem.fixed_area)));
+      facts.emplace_back("With the fixed parts",
+                         fmt::format("{} parts, cost {:.4g}, area {}", best.count + problem.fixed_count,
+                                     best.cost + problem.fixed_cost, html_area(best.area + problem.fixed_area)));
+    }
+    facts.emplace_back("Worst |Z|/Z_target",
+                       fmt::format("{} ({}) at {}{}", ratio_text(best.worst_ratio), db_text(best.worst_ratio),
+                                   html_value(best.worst_frequency, "Hz", 4),
+                                   best.verified ? ", on refined peaks (verified)" : ""));
+    facts.emplace_back("Search", bound_text(run));
+    page.add_key_values(facts);
+  }
 
   if (!r.alternatives.empty()) {
     page.add_heading("Alternatives");
+    std::vector<std::string> headers{"#"};
+    headers.insert(headers.end(), measures.begin(), measures.end());
+    headers.insert(headers.end(), {"Worst ratio", "Change from the chosen parts"});
     std::vector<std::vector<std::string>> rows;
     for (std::size_t i = 0; i < r.alternatives.size(); ++i) {
       const Selection& s = r.alternatives[i];
-      rows.push_back({std::to_string(i + 1), objective_text(objective, s.objective), fmt::format("{:.4g}", s.cost),
-                      std::to_string(s.count), mm2_text(s.area), ratio_text(s.worst_ratio), counts_text(problem, s)});
+      std::vector<std::string> row{std::to_string(i + 1)};
+      const auto cells = measure_cells(objective, s.cost, s.count, s.area);
+      row.insert(row.end(), cells.begin(), cells.end());
+      row.insert(row.end(), {ratio_text(s.worst_ratio), change_text(problem, best, s, kTimes, kMinus)});
+      rows.push_back(std::move(row));
     }
-    page.add_table({"#", "Objective", "Cost", "Count", "Area", "Worst ratio", "Parts"}, rows, {},
-                   {Align::right, Align::right, Align::right, Align::right, Align::right, Align::right, Align::left});
-    page.add_paragraph(r.status == PlanStatus::optimal
-                           ? "The search was complete: these are the best distinct selections there are."
-                           : "The search stopped at its node limit: better selections may exist.");
+    page.add_table(headers, rows, {},
+                   {Align::right, Align::right, Align::right, Align::right, Align::right, Align::left});
+    page.add_paragraph(
+        fmt::format("Ranked by {}. {} Each selection's full counts are in the plan JSON.", to_string(objective),
+                    r.status == PlanStatus::optimal
+                        ? "The search was complete: these are the best distinct selections there are."
+                        : "The search stopped at its node limit: better selections may exist."));
   }
 
   if (r.status != PlanStatus::infeasible) {
-    page.add_heading("Cost against margin");
+    page.add_heading(front_heading(objective));
     if (!front.empty())
-      page.add_svg(front, "Each point is the least " + std::string(to_string(objective)) +
-                              " found for a margin below the target; the shaded region lies above the target.");
+      page.add_svg(front, "Each point is the selection of " + objective_goal(objective) +
+                              " found for a margin asked below the target, labelled with the margin it achieves; "
+                              "the shaded region lies above the target.");
     const auto points = found_front(r);
     const auto rates = margin_rates(run, points);
+    std::vector<std::string> headers{"Margin asked", "Achieved"};
+    headers.insert(headers.end(), measures.begin(), measures.end());
+    headers.insert(headers.end(), {"Worst ratio", margin_gain_header(objective), "Proven"});
     std::vector<std::vector<std::string>> rows;
     std::size_t found = 0;
     for (const auto& point : r.front) {
+      std::vector<std::string> row{fmt::format("{:g}{}dB", point.margin_db, kNoBreakSpace)};
       if (!point.selection) {
-        rows.push_back({fmt::format("{:g} dB", point.margin_db), "none found", "-", "-", "-", "-",
-                        point.proven ? "yes" : "no"});
-        continue;
+        row.insert(row.end(), {"none found", "-", "-", "-", "-", "-"});
+      } else {
+        const Selection& s = *point.selection;
+        row.push_back(fmt::format("{:.2f}{}dB", point.achieved_margin_db, kNoBreakSpace));
+        const auto cells = measure_cells(objective, s.cost, s.count, s.area);
+        row.insert(row.end(), cells.begin(), cells.end());
+        const std::string& rate = rates[found++];
+        row.push_back(ratio_text(s.worst_ratio));
+        row.push_back(rate == "-" ? rate : rate + std::string(kNoBreakSpace) + "dB");
       }
-      const Selection& s = *point.selection;
-      rows.push_back({fmt::format("{:g} dB", point.margin_db), fmt::format("{:.2f} dB", point.achieved_margin_db),
-                      objective_text(objective, s.objective), fmt::format("{:.4g}", s.cost), ratio_text(s.worst_ratio),
-                      rates[found++], point.proven ? "yes" : "no"});
+      row.push_back(point.proven ? "yes" : "no");
+      rows.push_back(std::move(row));
     }
-    page.add_table({"Margin asked", "Achieved", "Objective", "Cost", "Worst ratio",
-                    margin_rate_unit(objective) + " (from the previous point)", "Proven"},
-                   rows, {},
-                   {Align::right, Align::right, Align::right, Align::right, Align::right, Align::right, Align::left});
+    page.add_table(headers, rows, {},
+                   {Align::right, Align::right, Align::right, Align::right, Align::right, Align::right, Align::right,
+                    Align::left});
+    page.add_paragraph(margin_gain_header(objective) +
+                       ": from the point above to this one; it falls as margin grows dearer. Proven: the search for "
+                       "that margin was complete.");
   }
 
   if (r.infeasibility) {
@@ -540,8 +697,8 @@ std::string plan_html(const PlanRun& run, const std::string& front, const std::s
     } else {
       std::vector<std::vector<std::string>> rows;
       for (const auto& b : inf.bands)
-        rows.push_back({format_value(b.start, "Hz", 3), format_value(b.stop, "Hz", 3), ratio_text(b.floor_ratio),
-                        format_value(b.frequency, "Hz", 3), b.limit, b.reason});
+        rows.push_back({html_value(b.start, "Hz", 3), html_value(b.stop, "Hz", 3), ratio_text(b.floor_ratio),
+                        html_value(b.frequency, "Hz", 3), b.limit, b.reason});
       page.add_table({"From", "To", "Best possible ratio", "At", "Limited by", "Why"}, rows,
                      std::vector<RowTone>(rows.size(), RowTone::fail),
                      {Align::right, Align::right, Align::right, Align::right, Align::left, Align::left});
@@ -550,18 +707,42 @@ std::string plan_html(const PlanRun& run, const std::string& front, const std::s
 
   page.add_heading("Candidates");
   {
+    std::vector<std::string> headers{"Part"};
+    if (with_names) headers.emplace_back("Name");
+    headers.insert(headers.end(), {"Description", "Chosen", "Cost each", "Area each", "Mounting"});
+    std::vector<Align> align{Align::left};
+    if (with_names) align.push_back(Align::left);
+    align.insert(align.end(), {Align::left, Align::right, Align::right, Align::right, Align::right});
     std::vector<std::vector<std::string>> rows;
     std::vector<RowTone> tones;
     for (std::size_t k = 0; k < problem.candidates.size(); ++k) {
       const PlanCandidate& c = problem.candidates[k];
-      rows.push_back({c.name, c.description, std::to_string(c.max_count), std::to_string(best.counts.size() > k ? best.counts[k] : 0),
-                      fmt::format("{:.4g}", c.cost), mm2_text(c.area), mounting_text(run, k), mounting_source(run, k)});
-      tones.push_back(best.counts.size() > k && best.counts[k] > 0 ? RowTone::pass : RowTone::muted);
+      const int n = best.counts.size() > k ? best.counts[k] : 0;
+      std::vector<std::string> row{part_text(c)};
+      if (with_names) row.push_back(c.name);
+      row.insert(row.end(), {c.description, fmt::format("{} of {}", n, c.max_count), fmt::format("{:.4g}", c.cost),
+                             html_area(c.area), mounting_html(run, k)});
+      rows.push_back(std::move(row));
+      tones.push_back(n > 0 ? RowTone::pass : RowTone::muted);
     }
-    page.add_table({"Name", "Description", "Max count", "Chosen", "Cost each", "Area each", "Mounting", "Mounting from"},
-                   rows, tones,
-                   {Align::left, Align::left, Align::right, Align::right, Align::right, Align::right, Align::right,
-                    Align::left});
+    page.add_table(headers, rows, tones, align);
+    // Where the mounting values came from, once per source rather than a wide column that
+    // would squeeze the part ids (the plan JSON has it per candidate).
+    std::vector<std::pair<std::string, int>> sources;
+    for (std::size_t k = 0; k < problem.candidates.size(); ++k) {
+      const std::string source = mounting_source(run, k);
+      if (source.empty()) continue;
+      const auto it = std::find_if(sources.begin(), sources.end(), [&](const auto& s) { return s.first == source; });
+      if (it == sources.end()) sources.emplace_back(source, 1);
+      else ++it->second;
+    }
+    if (!sources.empty()) {
+      std::string text = "Mounting inductance from:";
+      for (std::size_t i = 0; i < sources.size(); ++i)
+        text += fmt::format("{} {} ({} candidate{})", i == 0 ? "" : ";", sources[i].first, sources[i].second,
+                            sources[i].second == 1 ? "" : "s");
+      page.add_paragraph(text + ".");
+    }
   }
   if (run.project.plan && !run.project.plan->warnings.empty()) {
     page.add_heading("Warnings", 3);
@@ -583,8 +764,8 @@ std::string plan_html(const PlanRun& run, const std::string& front, const std::s
   if (!check.exceeded.empty()) {
     std::vector<std::vector<std::string>> rows;
     for (const auto& b : check.exceeded)
-      rows.push_back({format_value(b.start, "Hz", 3), format_value(b.stop, "Hz", 3), ratio_text(b.worst_ratio),
-                      db_text(b.worst_ratio), format_value(b.worst_frequency, "Hz", 3)});
+      rows.push_back({html_value(b.start, "Hz", 3), html_value(b.stop, "Hz", 3), ratio_text(b.worst_ratio),
+                      db_text(b.worst_ratio), html_value(b.worst_frequency, "Hz", 3)});
     page.add_heading("Where the target is exceeded", 3);
     page.add_table({"From", "To", "Worst ratio", "dB", "At"}, rows, std::vector<RowTone>(rows.size(), RowTone::fail),
                    {Align::right, Align::right, Align::right, Align::right, Align::right});
@@ -596,8 +777,8 @@ std::string plan_html(const PlanRun& run, const std::string& front, const std::s
     for (std::size_t i = 0; i < check.peaks.size(); ++i) {
       const Peak& k = check.peaks[i];
       const PeakAttribution* a = i < check.attributions.size() ? &check.attributions[i] : nullptr;
-      rows.push_back({format_value(k.frequency, "Hz", 4), format_value(k.magnitude, "ohm", 3),
-                      format_value(k.target, "ohm", 3), ratio_text(k.ratio), a ? a->explanation : std::string("-")});
+      rows.push_back({html_value(k.frequency, "Hz", 4), html_value(k.magnitude, "ohm", 3),
+                      html_value(k.target, "ohm", 3), ratio_text(k.ratio), a ? a->explanation : std::string("-")});
       tones.push_back(k.ratio > 1.0 ? RowTone::fail : RowTone::plain);
     }
     page.add_table({"Frequency", "|Z|", "Target", "Ratio", "Formed by"}, rows, tones,
@@ -607,15 +788,16 @@ std::string plan_html(const PlanRun& run, const std::string& front, const std::s
     page.add_heading("Parts of the planned design", 3);
     std::vector<std::vector<std::string>> rows;
     std::vector<RowTone> tones;
-    const auto dash = [](const std::optional<double>& v, const char* unit) {
-      return v && std::isfinite(*v) ? format_value(*v, unit, 3) : std::string("-");
-    };
     for (const auto& row : check.parts) {
-      rows.push_back({row.name, row.library_id.empty() ? row.description : row.library_id, std::to_string(row.count),
-                      dash(row.effective_capacitance, "F"), dash(row.esr, "ohm"), dash(row.esl, "H"),
-                      row.mounting_inductance > 0.0 ? format_value(row.mounting_inductance, "H", 3) : "-",
-                      dash(row.srf, "Hz"), row.cost_total ? fmt::format("{:.4g}", *row.cost_total) : "-",
-                      row.area_total ? mm2_text(*row.area_total) : "-"});
+      // The part column only when it says more than the name (a library id that differs,
+      // or a description such as "plane pair").
+      const std::string part = row.library_id.empty() ? row.description : row.library_id;
+      rows.push_back({row.name, part == row.name ? std::string() : part, std::to_string(row.count),
+                      html_optional(row.effective_capacitance, "F", 3), html_optional(row.esr, "ohm", 3),
+                      html_optional(row.esl, "H", 3),
+                      row.mounting_inductance > 0.0 ? html_value(row.mounting_inductance, "H", 3) : "-",
+                      html_optional(row.srf, "Hz", 3), row.cost_total ? fmt::format("{:.4g}", *row.cost_total) : "-",
+                      row.area_total ? html_area(*row.area_total) : "-"});
       tones.push_back(row.kind == "capacitor" ? RowTone::plain : RowTone::muted);
     }
     page.add_table({"Name", "Part", "Count", "C effective", "ESR", "ESL", "Mounting", "SRF mounted", "Cost", "Area"},
@@ -634,7 +816,7 @@ std::string plan_html(const PlanRun& run, const std::string& front, const std::s
                         r.stats.nodes, r.stats.moves, r.stats.rounds, r.stats.frequencies, r.stats.candidates);
     if (!r.added_frequencies.empty()) {
       text += "\nFrequencies added after verification:";
-      for (double f : r.added_frequencies) text += " " + format_value(f, "Hz", 4);
+      for (double f : r.added_frequencies) text += " " + html_value(f, "Hz", 4);
     }
     if (run.project.plan)
       for (const auto& n : run.project.plan->notes) text += "\n" + n;
@@ -696,12 +878,13 @@ std::string plan_text(const PlanRun& run, bool colour) {
     constexpr std::size_t kShown = 5;  // the top few; the JSON and HTML have them all
     line("");
     line(paint("Alternatives", Tone::heading, colour));
-    TextTable table({"#", "Objective", "Count", "Worst ratio", "Parts"},
+    // Changes against the chosen parts keep the lines short; the reports have full counts.
+    TextTable table({"#", "Objective", "Count", "Worst ratio", "Change from the chosen parts"},
                     {Align::right, Align::right, Align::right, Align::right, Align::left});
     for (std::size_t i = 0; i < r.alternatives.size() && i < kShown; ++i) {
       const Selection& s = r.alternatives[i];
       table.add_row({std::to_string(i + 1), objective_text(objective, s.objective), std::to_string(s.count),
-                     ratio_text(s.worst_ratio), counts_text(problem, s)});
+                     ratio_text(s.worst_ratio), change_text(problem, best, s, " x ", "-")});
     }
     out += table.render(colour);
     if (r.alternatives.size() > kShown) line(fmt::format("  ... {} more in the reports", r.alternatives.size() - kShown));
@@ -709,7 +892,7 @@ std::string plan_text(const PlanRun& run, bool colour) {
 
   if (!r.front.empty()) {
     line("");
-    line(paint("Cost against margin", Tone::heading, colour));
+    line(paint(front_heading(objective), Tone::heading, colour));
     TextTable table({"Margin asked", "Achieved", "Objective", "Worst ratio", "Proven"},
                     {Align::right, Align::right, Align::right, Align::right, Align::left});
     for (const auto& point : r.front) {

@@ -48,7 +48,7 @@ const Keys kLoadKeys{"package_inductance", "package_resistance", "die_capacitanc
 const Keys kLineKeys{"part", "count", "mounting", "name"};
 const Keys kFeedKeys{"part", "count", "mounting", "name", "supply_bom"};
 const Keys kPlanKeys{"objective", "seed",         "alternatives", "node_limit", "candidates",
-                     "voltage_margin", "max_per_part", "max_total", "max_area",   "keep"};
+                     "voltage_margin", "max_per_part", "max_total", "max_area",   "keep", "impedance_margin"};
 const Keys kCandidateKeys{"families", "packages", "dielectrics", "values", "parts", "exclude"};
 const Keys kListedPartKeys{"part", "max_count"};
 const Keys kFilterKeys{"families", "packages", "dielectrics", "values"};
@@ -1003,6 +1003,11 @@ PlanSection read_plan(Context& c, const Json& node) {
   plan.voltage_margin = c.in.optional_quantity(node, p, "voltage_margin", "").value_or(kDefaultVoltageMargin);
   require_input(std::isfinite(plan.voltage_margin) && plan.voltage_margin >= 1.0, {c.in.file(), child(p, "voltage_margin")},
                 "a voltage margin >= 1 (a factor on the rail's DC voltage)", format_value(plan.voltage_margin, "", 4));
+  // The design margin below the target, dB: a number or "1dB".
+  plan.margin_db = c.in.optional_quantity(node, p, "impedance_margin", "dB").value_or(0.0);
+  require_input(std::isfinite(plan.margin_db) && plan.margin_db >= 0.0 && plan.margin_db <= 40.0,
+                {c.in.file(), child(p, "impedance_margin")}, "a margin below the target from 0 to 40 dB",
+                format_value(plan.margin_db, "dB", 4));
   plan.max_per_part = read_bounded(c, node, p, "max_per_part", 0, std::numeric_limits<int>::max()).value_or(kDefaultMaxPerPart);
   plan.limits.max_total = read_bounded(c, node, p, "max_total", 1, std::numeric_limits<int>::max());
   if (const Json* a = JsonReader::find(node, "max_area")) {
@@ -1205,6 +1210,8 @@ PlanProblem Project::plan_problem() const {
   problem.candidates = plan->candidates;
   problem.limits = plan->limits;
   problem.objective = plan->objective;
+  problem.margin_db = plan->margin_db;
+  problem.fixed_info = branch_info;
   const FixedTotals fixed = fixed_totals(*this);
   problem.fixed_cost = fixed.cost;
   problem.fixed_area = fixed.area;

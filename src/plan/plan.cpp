@@ -6,6 +6,7 @@
 #include <limits>
 #include <functional>
 #include <set>
+#include <variant>
 
 #include <fmt/core.h>
 
@@ -104,6 +105,32 @@ std::vector<int> heuristic_answer(const SelectionModel& model, const SearchSpec&
   return improve_locally(model, spec, std::move(start), options.heuristic_rounds, random, counters);
 }
 
+// `counts` and the selections one move away from it (one copy more of a candidate; one
+// copy traded for one of another) that meet the target within the limits: seeds that give
+// a K-best search a finite threshold from its first node.
+std::vector<std::vector<int>> neighbours(const SelectionModel& model, const SearchSpec& spec,
+                                         const std::vector<int>& counts, SearchCounters& counters) {
+  std::vector<std::vector<int>> out{counts};
+  const auto consider = [&](std::vector<int> next) {
+    if (!spec.within_limits(next)) return;
+    ++counters.moves;
+    if (model.meets(model.admittance(next))) out.push_back(std::move(next));
+  };
+  for (std::size_t b = 0; b < counts.size(); ++b) {
+    std::vector<int> more = counts;
+    ++more[b];
+    consider(more);
+    for (std::size_t a = 0; a < counts.size(); ++a) {
+      if (a == b || counts[a] == 0) continue;
+      std::vector<int> swapped = counts;
+      --swapped[a];
+      ++swapped[b];
+      consider(swapped);
+    }
+  }
+  return out;
+}
+
 // One search at `scale` times the target: heuristic to seed, then branch and bound.
 struct SearchOutcome {
   BranchAndBoundResult exact;
@@ -181,11 +208,14 @@ UnreachableBand explain(const PlanProblem& problem, const SelectionModel& model,
     band.reason = where + ": allow more copies or choose parts with lower ESR";
   } else if (z.imag() > 0.0) {
     band.limit = "inductance";
+    // The part's own ESL plus its mounting: what sets omega*L well above the SRF.
+    double esl = c.part.mounting_inductance;
+    if (const auto* cap = std::get_if<Capacitor>(&c.part.element)) esl += cap->esl;
     band.reason = where + fmt::format(
-                              ": above its SRF the count limit times the mounted inductance ({} each) sets the "
-                              "floor omega*L/N; allow more copies, use lower-inductance mounting or packages, or add "
-                              "on-package capacitance",
-                              format_value(z.imag() / omega(f), "H"));
+                              ": above its SRF the count limit times the mounted inductance ({} each, ESL plus "
+                              "mounting) sets the floor omega*L/N; allow more copies, use lower-inductance mounting "
+                              "or packages, or add on-package capacitance",
+                              format_value(esl, "H"));
   } else {
     band.limit = "capacitance";
     band.reason = where + ": below its SRF there is not enough capacitance within the limits";
@@ -200,7 +230,8 @@ Infeasibility analyse_infeasible(const PlanProblem& problem, const PlanOptions& 
                                  SearchCounters& counters) {
   Infeasibility out;
   out.proven = proven;
-  const SelectionModel model(problem, frequencies);  // the target itself, no guard
+  const double limit = margin_ratio(problem);
+  const SelectionModel model(problem, frequencies);  // ratios against the target itself, no guard
   const std::size_t f = model.frequency_count();
   std::vector<double> floors(f, 0.0);
   std::vector<bool> out_of_reach(f, false);
@@ -213,7 +244,7 @@ Infeasibility analyse_infeasible(const PlanProblem& problem, const PlanOptions& 
     }
     if (spec.max_total) reach = std::min(reach, *spec.max_total * largest);
     floors[i] = model.reachable(i) ? model.floor_ratio(i, reach) : std::abs(model.shorted_impedance(i)) / model.limit(i);
-    out_of_reach[i] = !model.reachable(i) || floors[i] > 1.0;
+    out_of_reach[i] = !model.reachable(i) || floors[i] > limit;
     out.ratio_lower_bound = std::max(out.ratio_lower_bound, floors[i]);
   }
   for (const auto& [first, last] : runs(out_of_reach)) {
@@ -225,18 +256,46 @@ Infeasibility analyse_infeasible(const PlanProblem& problem, const PlanOptions& 
     band.stop = model.frequencies()[last];
     out.bands.push_back(std::move(band));
   }
-  const std::vector<int> counts = greedy_min_ratio(model, spec, counters);
+
+  // The best worst ratio within the limits: a greedy start, then bisection on the ratio
+  // asked for, each step an exact search for any selection under it. A step that finds one
+  // lowers the best (its refined ratio); one that proves there is none raises the bound;
+  // one that stops at its node limit ends the bisection.
+  std::vector<int> counts = greedy_min_ratio(model, spec, counters);
   out.best = selection_totals(problem, counts);
   verify(out.best, check_selection(problem, options, counts));
+  double low = std::max(out.ratio_lower_bound, proven ? limit : 0.0);
+  double high = out.best.worst_ratio;
+  for (int step = 0; step < 12 && high > low * 1.01; ++step) {
+    const double mid = low > 0.0 ? std::sqrt(low * high) : 0.5 * high;
+    const SelectionModel scaled(problem, frequencies, mid, options.guard);
+    const BranchAndBoundResult found = branch_and_bound(scaled, spec, {}, 1, options.guide_node_limit, counters);
+    if (!found.best.empty()) {
+      Selection s = selection_totals(problem, found.best.front());
+      verify(s, check_selection(problem, options, s.counts));
+      if (s.worst_ratio < out.best.worst_ratio) out.best = s;
+      high = std::min(high, std::max(mid, s.worst_ratio));
+      if (s.worst_ratio > mid) break;  // a peak between the search's frequencies: stop here
+    } else if (found.complete) {
+      low = mid;
+    } else {
+      break;
+    }
+  }
+  out.ratio_lower_bound = std::max(out.ratio_lower_bound, low);
   out.best_ratio = out.best.worst_ratio;
   return out;
+}
+
+std::string margin_phrase(const PlanProblem& problem) {
+  return problem.margin_db > 0.0 ? fmt::format(" with {:.3g} dB of margin", problem.margin_db) : std::string();
 }
 
 std::string objective_text(const PlanProblem& problem, const Selection& s) {
   switch (problem.objective) {
     case PlanObjective::cost: return fmt::format("cost {:.4g} ({} parts)", s.cost, s.count);
     case PlanObjective::count: return fmt::format("{} parts (cost {:.4g})", s.count, s.cost);
-    case PlanObjective::area: return fmt::format("area {} ({} parts)", format_value(s.area, "m^2"), s.count);
+    case PlanObjective::area: return fmt::format("area {:.4g} mm^2 ({} parts)", s.area * 1e6, s.count);
   }
   return {};
 }
@@ -275,6 +334,8 @@ void PlanProblem::validate() const {
   band.validate();
   target->cover_band(band.start, band.stop, "", "target");
   require_input(!candidates.empty(), {"", "candidates"}, "at least one candidate part", "none");
+  require_input(std::isfinite(margin_db) && margin_db >= 0.0 && margin_db <= 40.0, {"", "margin_db"},
+                "a margin from 0 to 40 dB", fmt::format("{}", margin_db));
   require_input(network.has_node(board) && board != Network::kGround, {"", "board"}, "a node of the network", "");
   require_input(network.has_node(port) && port != Network::kGround, {"", "port"}, "a node of the network", "");
   std::set<std::string> names;
@@ -304,6 +365,8 @@ void PlanProblem::validate() const {
     require_input(fixed_info.size() == network.branch_count(), {"", "fixed_info"}, "one entry per fixed branch",
                   std::to_string(fixed_info.size()));
 }
+
+double margin_ratio(const PlanProblem& problem) { return std::pow(10.0, -problem.margin_db / 20.0); }
 
 void PlanOptions::validate() const {
   require_input(alternatives >= 1 && alternatives <= 1000, {"", "alternatives"}, "1 to 1000 alternatives",
@@ -342,6 +405,66 @@ Selection selection_totals(const PlanProblem& problem, const std::vector<int>& c
   return s;
 }
 
+// A search held to `limit` (|Z|/Z_t on refined peaks) and verified: search on
+// `frequencies`, check the answer with refined peaks, add the frequencies that broke it,
+// repeat. `frequencies` keeps what was added (later searches start from it).
+struct VerifiedSearch {
+  bool verified = false;
+  SearchOutcome outcome;     // the last round's search
+  CheckResult check;         // the refined check of outcome.exact.best.front() when verified
+  double guard = 0.0;        // the guard the last round used
+  int rounds = 0;
+};
+
+VerifiedSearch search_verified(const PlanProblem& problem, const PlanOptions& options, const SearchSpec& spec,
+                               double limit, std::size_t node_limit, std::vector<double>& frequencies,
+                               std::vector<double>& added_frequencies, SearchCounters& counters,
+                               std::vector<std::vector<int>> seeds = {}) {
+  VerifiedSearch out;
+  out.guard = options.guard;
+  const auto holds = [limit](const CheckResult& check) { return check.worst_ratio <= limit; };
+  const auto add = [&](const std::vector<double>& more) {
+    for (double f : more) {
+      frequencies.insert(std::lower_bound(frequencies.begin(), frequencies.end(), f), f);
+      added_frequencies.push_back(f);
+    }
+  };
+  int heuristic_rounds_left = 3;  // rounds that only check the heuristic's answer
+  for (int round = 0; round < options.max_rounds; ++round) {
+    out.rounds = round + 1;
+    const SelectionModel model(problem, frequencies, limit, out.guard);
+    // The heuristic's answer is checked first: a sharp peak it hides between grid points
+    // is likely hidden by the exact answer too (both share the plane and the bulk), and
+    // adding it now saves a whole exact search.
+    std::vector<int> heuristic = heuristic_answer(model, spec, options, counters);
+    if (!heuristic.empty() && heuristic_rounds_left > 0) {
+      const CheckResult check = check_selection(problem, options, heuristic);
+      const std::vector<double> added = breaking_frequencies(check, limit, frequencies, problem.band);
+      if (!holds(check) && !added.empty()) {
+        --heuristic_rounds_left;
+        add(added);
+        continue;
+      }
+    }
+    out.outcome = search_once(model, spec, options, 1, node_limit, counters, seeds, heuristic);
+    if (out.outcome.exact.best.empty()) break;
+    out.check = check_selection(problem, options, out.outcome.exact.best.front());
+    if (holds(out.check)) {
+      out.verified = true;
+      break;
+    }
+    seeds = out.outcome.exact.best;
+    // A refined peak between the search's frequencies breaks the target: it joins them.
+    const std::vector<double> added = breaking_frequencies(out.check, limit, frequencies, problem.band);
+    if (added.empty()) {
+      out.guard = std::min(1e-4, out.guard * 10.0 + 1e-12);  // the two evaluations disagree in the last digits
+      continue;
+    }
+    add(added);
+  }
+  return out;
+}
+
 PlanResult run_plan(const PlanProblem& problem, const PlanOptions& options) {
   problem.validate();
   options.validate();
@@ -350,48 +473,17 @@ PlanResult run_plan(const PlanProblem& problem, const PlanOptions& options) {
   SearchCounters counters;
   for (int m : spec.max_count) result.stats.candidates += m > 0 ? 1 : 0;
 
+  // The answer must hold |Z|/Z_t <= limit on refined peaks (1 unless a margin is asked).
   std::vector<double> frequencies = FrequencyGrid(problem.band).frequencies();
-  double guard = options.guard;
-  SearchOutcome outcome;
-  bool verified = false;
-  int heuristic_rounds_left = 3;  // rounds that only check the heuristic's answer
-  for (int round = 0; round < options.max_rounds; ++round) {
-    result.stats.rounds = round + 1;
-    const SelectionModel model(problem, frequencies, 1.0, guard);
-    // The heuristic's answer is checked first: a sharp peak it hides between grid points
-    // is likely hidden by the exact answer too (both share the plane and the bulk), and
-    // adding it now saves a whole exact search.
-    std::vector<int> heuristic = heuristic_answer(model, spec, options, counters);
-    if (!heuristic.empty() && heuristic_rounds_left > 0) {
-      const CheckResult check = check_selection(problem, options, heuristic);
-      const std::vector<double> added = breaking_frequencies(check, 1.0, frequencies, problem.band);
-      if (check.status == CheckStatus::fail && !added.empty()) {
-        --heuristic_rounds_left;
-        for (double f : added) {
-          frequencies.insert(std::lower_bound(frequencies.begin(), frequencies.end(), f), f);
-          result.added_frequencies.push_back(f);
-        }
-        continue;
-      }
-    }
-    outcome = search_once(model, spec, options, 1, options.node_limit, counters, outcome.exact.best, heuristic);
-    if (outcome.exact.best.empty()) break;
-    result.check = check_selection(problem, options, outcome.exact.best.front());
-    if (result.check.status == CheckStatus::pass) {
-      verified = true;
-      break;
-    }
-    // A refined peak between the search's frequencies breaks the target: it joins them.
-    const std::vector<double> added = breaking_frequencies(result.check, 1.0, frequencies, problem.band);
-    if (added.empty()) {
-      guard = std::min(1e-4, guard * 10.0 + 1e-12);  // the two evaluations disagree in the last digits
-      continue;
-    }
-    for (double f : added) {
-      frequencies.insert(std::lower_bound(frequencies.begin(), frequencies.end(), f), f);
-      result.added_frequencies.push_back(f);
-    }
-  }
+  const double limit = margin_ratio(problem);
+  const auto holds = [limit](const CheckResult& check) { return check.worst_ratio <= limit; };
+  const VerifiedSearch answer_search = search_verified(problem, options, spec, limit, options.node_limit, frequencies,
+                                                       result.added_frequencies, counters);
+  const SearchOutcome& outcome = answer_search.outcome;
+  const bool verified = answer_search.verified;
+  const double guard = answer_search.guard;
+  result.check = answer_search.check;
+  result.stats.rounds = answer_search.rounds;
   result.stats.frequencies = frequencies.size();
 
   if (!verified) {
@@ -404,10 +496,10 @@ PlanResult run_plan(const PlanProblem& problem, const PlanOptions& options) {
     result.gap = kInfinity;
     result.network = planned_network(problem, result.best.counts);
     result.check = check_selection(problem, options, result.best.counts);
-    result.message = fmt::format("infeasible: {} selection within the limits meets the target; best worst |Z|/Z_t "
+    result.message = fmt::format("infeasible: {} selection within the limits meets the target{}; best worst |Z|/Z_t "
                                  "{:.3g} (no selection can do better than {:.3g})",
-                                 proven ? "no" : "the search found no", result.infeasibility->best_ratio,
-                                 result.infeasibility->ratio_lower_bound);
+                                 proven ? "no" : "the search found no", margin_phrase(problem),
+                                 result.infeasibility->best_ratio, result.infeasibility->ratio_lower_bound);
   } else {
     const std::vector<int>& best = outcome.exact.best.front();
     result.best = selection_totals(problem, best);
@@ -422,50 +514,73 @@ PlanResult run_plan(const PlanProblem& problem, const PlanOptions& options) {
     result.alternatives.push_back(result.best);
     result.alternatives_complete = result.status == PlanStatus::optimal;
     if (options.alternatives > 1) {
-      const SelectionModel model(problem, frequencies, 1.0, guard);
-      const BranchAndBoundResult k_best = branch_and_bound(model, spec, {best}, options.alternatives,
-                                                           options.guide_node_limit, counters, options.progress);
+      const SelectionModel model(problem, frequencies, limit, guard);
+      const BranchAndBoundResult k_best =
+          branch_and_bound(model, spec, neighbours(model, spec, best, counters), options.alternatives,
+                           options.guide_node_limit, counters, options.progress);
       result.alternatives_complete = k_best.complete && result.status == PlanStatus::optimal;
       for (const std::vector<int>& counts : k_best.best) {
         if (counts == best) continue;
         Selection s = selection_totals(problem, counts);
         const CheckResult check = check_selection(problem, options, s.counts);
         verify(s, check);
-        if (check.status == CheckStatus::pass) result.alternatives.push_back(std::move(s));
+        if (holds(check)) result.alternatives.push_back(std::move(s));
+      }
+    }
+    // For the count and area objectives, equal answers are told apart by cost: among the
+    // verified alternatives with the answer's objective, the cheapest becomes the answer.
+    if (problem.objective != PlanObjective::cost) {
+      const auto same = [&](const Selection& a) {
+        return std::abs(a.objective - result.best.objective) <= 1e-12 * std::max(1.0, result.best.objective);
+      };
+      const auto cheapest = std::min_element(result.alternatives.begin(), result.alternatives.end(),
+                                             [&](const Selection& a, const Selection& b) {
+                                               return same(a) && (!same(b) || a.cost < b.cost);
+                                             });
+      if (cheapest != result.alternatives.begin() && same(*cheapest) && cheapest->cost < result.best.cost) {
+        std::iter_swap(result.alternatives.begin(), cheapest);
+        result.best = result.alternatives.front();
+        result.network = planned_network(problem, result.best.counts);
+        result.check = check_selection(problem, options, result.best.counts);
       }
     }
     result.message = fmt::format("{}: {}, worst |Z|/Z_t {:.3g} at {}", to_string(result.status),
                                  objective_text(problem, result.best), result.best.worst_ratio,
                                  format_value(result.best.worst_frequency, "Hz"));
+    if (problem.margin_db > 0.0) result.message += fmt::format(" ({:.3g} dB margin asked)", problem.margin_db);
     if (result.status == PlanStatus::feasible)
       result.message += fmt::format("; within {:.3g} % of the best bound", 100.0 * result.gap);
 
     // The front: the least objective for each margin below the target.
     FrontPoint answer;
+    answer.margin_db = problem.margin_db;
     answer.selection = result.best;
     answer.achieved_margin_db = -20.0 * std::log10(result.best.worst_ratio);
     answer.proven = result.status == PlanStatus::optimal;
+    answer.bound = result.bound;
     result.front.push_back(answer);
     // From the largest margin down: each answer also meets every smaller margin, so it
     // seeds the next search's pruning.
     std::vector<double> margins;
     for (double margin : options.front_margins_db)
-      if (margin > 0.0) margins.push_back(margin);
+      if (margin > problem.margin_db) margins.push_back(margin);
     std::sort(margins.begin(), margins.end(), std::greater<>());
     margins.erase(std::unique(margins.begin(), margins.end()), margins.end());
     std::vector<FrontPoint> points;
     for (double margin : margins) {
       FrontPoint point;
       point.margin_db = margin;
-      const double scale = std::pow(10.0, -margin / 20.0);
-      const SelectionModel model(problem, frequencies, scale, guard);
       std::vector<std::vector<int>> seeds;
       if (!points.empty() && points.back().selection) seeds.push_back(points.back().selection->counts);
-      const SearchOutcome o = search_once(model, spec, options, 1, options.guide_node_limit, counters, seeds);
-      point.proven = o.exact.complete;
-      if (!o.exact.best.empty()) {
-        Selection s = selection_totals(problem, o.exact.best.front());
-        verify(s, check_selection(problem, options, s.counts));
+      std::vector<double> point_frequencies = frequencies;
+      std::vector<double> point_added;
+      const VerifiedSearch o = search_verified(problem, options, spec, std::pow(10.0, -margin / 20.0),
+                                               options.guide_node_limit, point_frequencies, point_added, counters, seeds);
+      point.proven = o.outcome.exact.complete;
+      point.bound = o.outcome.exact.bound;
+      if (o.verified) {
+        Selection s = selection_totals(problem, o.outcome.exact.best.front());
+        verify(s, o.check);
         point.achieved_margin_db = -20.0 * std::log10(s.worst_ratio);
         point.selection = std::move(s);
       }

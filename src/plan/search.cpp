@@ -5,7 +5,6 @@
 #include <cmath>
 #include <limits>
 #include <numeric>
-#include <variant>
 
 #include "quietrail/error.hpp"
 
@@ -514,8 +513,10 @@ class BranchAndBound {
   // fly (stopping at the first frequency that prunes); only a child that survives gets its
   // total written out, so pruned children cost a few frequencies, not all of them.
   void expand(std::size_t j, const AdmittanceVector& total, double objective, int placed, double area, double lower) {
-    if (progress_ && (nodes_ & 0xffff) == 0)
+    if (progress_ && nodes_ >= next_progress_) {
+      next_progress_ = nodes_ + kProgressEvery;
       progress_(best_.empty() ? kInfinity : best_.front().first, root_bound_, nodes_);
+    }
     const std::size_t k = order_[j];
     const double w = spec_.weight[k];
     int most = spec_.max_count[k];
@@ -568,6 +569,8 @@ class BranchAndBound {
   bool aborted_ = false;
   double open_bound_ = kInfinity;
   double root_bound_ = 0.0;
+  static constexpr std::size_t kProgressEvery = 1 << 16;  // nodes between progress calls
+  std::size_t next_progress_ = kProgressEvery;
   mutable std::vector<std::size_t> priority_;  // frequency indices, those that prune first
 };
 

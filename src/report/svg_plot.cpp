@@ -147,7 +147,8 @@ struct LegendEntry {
 
 std::string branch_colour(std::size_t branch_index) { return kBranchColours[branch_index % kBranchColours.size()]; }
 
-std::vector<LegendEntry> legend_entries(const std::vector<PlotSeries>& series, const std::vector<PlotMarker>& markers) {
+std::vector<LegendEntry> legend_entries(const std::vector<PlotSeries>& series, const std::vector<PlotMarker>& markers,
+                                       const PlotOptions& options) {
   std::vector<LegendEntry> entries;
   // Legend order: what the reader looks for first (total, other views, target), then branches.
   for (const Style style : {Style::total, Style::secondary, Style::target_mask}) {
@@ -167,8 +168,12 @@ std::vector<LegendEntry> legend_entries(const std::vector<PlotSeries>& series, c
   }
   const bool any_peak = std::any_of(markers.begin(), markers.end(), [](const PlotMarker& m) { return !m.violation; });
   const bool any_violation = std::any_of(markers.begin(), markers.end(), [](const PlotMarker& m) { return m.violation; });
-  if (any_peak) entries.push_back({LegendEntry::Kind::peak, Style::total, kTotal, "peak"});
-  if (any_violation) entries.push_back({LegendEntry::Kind::violation, Style::total, kViolation, "peak above target"});
+  if (any_peak && !options.marker_legend.empty())
+    entries.push_back(
+        {LegendEntry::Kind::peak, Style::total, kTotal, clip_text(options.marker_legend, kLegendNameLimit)});
+  if (any_violation && !options.violation_legend.empty())
+    entries.push_back({LegendEntry::Kind::violation, Style::total, kViolation,
+                       clip_text(options.violation_legend, kLegendNameLimit)});
   return entries;
 }
 
@@ -249,7 +254,7 @@ Frame make_frame(const std::vector<PlotSeries>& series, const std::vector<PlotMa
   const double room_for_legend =
       std::min(kLegendShare * height, std::max(0.0, height - layout.top - fixed_bottom - kMinPlotHeight));
   const auto max_rows = static_cast<std::size_t>(std::max(1.0, std::floor(room_for_legend / kLegendRow)));
-  frame.legend = legend_rows(legend_entries(series, markers), layout.width, max_rows);
+  frame.legend = legend_rows(legend_entries(series, markers, options), layout.width, max_rows);
   layout.height = height - layout.top - fixed_bottom - kLegendRow * static_cast<double>(frame.legend.size());
   return frame;
 }
@@ -446,33 +451,72 @@ Ticks log_ticks(double lo, double hi) {
   return t;
 }
 
-// True for 2 and 5 times a decade, the minor values that may carry a label.
-bool labelled_minor(double v) {
-  const double mantissa = v / std::pow(10.0, std::floor(std::log10(v) + kLogSlack));
-  return std::abs(mantissa - 2.0) < 1e-6 || std::abs(mantissa - 5.0) < 1e-6;
+// Mantissas that may carry a tick label besides the decade itself, sparse and dense. The
+// dense set has a label within a factor 1.34 of any value, so even an axis narrower than a
+// factor of 2 (which may hold no 2..9 multiple at all) gets labels.
+constexpr std::array<double, 2> kMantissas125 = {2.0, 5.0};
+constexpr std::array<double, 11> kMantissasDense = {1.2, 1.5, 2.0, 2.5, 3.0, 4.0, 5.0, 6.0, 7.0, 8.0, 9.0};
+// The closest pair of labels in the dense set: 9 and 10 times a decade, log10(10/9) decades.
+const double kClosestLabelPair = std::log10(10.0 / 9.0);
+
+// m * 10^k strictly inside (lo, hi) for each mantissa m, ascending per decade.
+template <std::size_t N>
+std::vector<double> mantissa_ticks(double lo, double hi, const std::array<double, N>& mantissas) {
+  std::vector<double> out;
+  const int first = static_cast<int>(std::floor(std::log10(lo) + kLogSlack));
+  const int last = static_cast<int>(std::ceil(std::log10(hi) - kLogSlack));
+  for (int k = first; k <= last; ++k)
+    for (const double m : mantissas) {
+      const double v = m * std::pow(10.0, k);
+      if (v > lo * (1.0 + 1e-9) && v < hi * (1.0 - 1e-9)) out.push_back(v);
+    }
+  return out;
 }
 
-// Labelled tick values (value, is a decade), ascending. Decades are thinned to every n-th
-// when they crowd (closer than `spacing` px); 2 and 5 times a decade are labelled too when
-// fewer than two decades show or a decade is at least `minor_from` px long.
-std::vector<std::pair<double, bool>> tick_labels(const Ticks& t, double decade_px, double minor_from, double spacing) {
+// Labelled tick values (value, is a decade), ascending, by the rule in svg_plot.hpp:
+// decades (thinned to every n-th when closer than `spacing` px); 2 and 5 times a decade when
+// fewer than two decades show or a decade is at least `minor_from` px long; the dense set
+// when its closest pair, 9 and 10, stays `spacing` apart.
+std::vector<std::pair<double, bool>> tick_labels(const Ticks& t, double lo, double hi, double decade_px,
+                                                 double minor_from, double spacing) {
+  std::vector<double> minor;
+  if (decade_px * kClosestLabelPair >= spacing) {
+    minor = mantissa_ticks(lo, hi, kMantissasDense);
+  } else if (t.major.size() < 2 || decade_px >= minor_from) {
+    minor = mantissa_ticks(lo, hi, kMantissas125);
+  }
   std::vector<std::pair<double, bool>> out;
-  const bool with_minor = t.major.size() < 2 || decade_px >= minor_from;
   const auto step = static_cast<std::size_t>(std::max(1.0, std::ceil(spacing / std::max(decade_px, 1e-9))));
   for (std::size_t i = 0; i < t.major.size(); ++i)
-    if (with_minor || i % step == 0) out.emplace_back(t.major[i], true);
-  if (with_minor)
-    for (const double v : t.minor)
-      if (labelled_minor(v)) out.emplace_back(v, false);
+    if (!minor.empty() || i % step == 0) out.emplace_back(t.major[i], true);
+  for (const double v : minor) out.emplace_back(v, false);
   std::sort(out.begin(), out.end());
   return out;
 }
 
-// format_value's text with the micro sign for display: "100 uohm" reads "100 µΩ".
+// A plain number for a unitless axis: three significant digits at most, no SI prefix (a
+// ratio of 0.5 must not read "500 m"); scientific, written "1e-6" / "2e6", beyond 1e-4..1e6.
+std::string plain_number(double v) {
+  if (v == 0.0 || !std::isfinite(v)) return fmt::format("{}", v);
+  const int exponent = static_cast<int>(std::floor(std::log10(std::abs(v)) + kLogSlack));
+  auto trim = [](std::string text) {
+    if (text.find('.') == std::string::npos) return text;
+    while (text.back() == '0') text.pop_back();
+    if (text.back() == '.') text.pop_back();
+    return text;
+  };
+  if (exponent >= -4 && exponent < 6) return trim(fmt::format("{:.{}f}", v, std::max(0, 2 - exponent)));
+  const double mantissa = v / std::pow(10.0, exponent);
+  return trim(fmt::format("{:.2f}", mantissa)) + "e" + std::to_string(exponent);
+}
+
+// format_value's text with the micro sign for display: "100 uohm" reads "100 µΩ". A
+// unitless axis gets plain numbers.
 std::string tick_text(double v, const std::string& unit) {
+  if (unit.empty()) return plain_number(v);
   std::string text = format_value(v, unit, 3);
   const std::string ascii_micro = " u" + unit;
-  if (!unit.empty() && text.ends_with(ascii_micro))
+  if (text.ends_with(ascii_micro))
     text.replace(text.size() - ascii_micro.size(), 2, " \xC2\xB5");  // U+00B5
   return text;
 }
@@ -624,13 +668,28 @@ std::string render_svg_loglog(const std::vector<PlotSeries>& series, const std::
   const Ticks yt = log_ticks(layout.y_min, layout.y_max);
   const double x_decade_px = layout.width / (std::log10(layout.x_max) - std::log10(layout.x_min));
   const double y_decade_px = layout.height / (std::log10(layout.y_max) - std::log10(layout.y_min));
+  const auto x_ticks =
+      tick_labels(xt, layout.x_min, layout.x_max, x_decade_px, kTickLabelMinDecadeX, kTickLabelSpacingX);
+  const auto y_ticks =
+      tick_labels(yt, layout.y_min, layout.y_max, y_decade_px, kTickLabelMinDecadeY, kTickLabelSpacingY);
+  // Light lines at 2..9 times each decade, and at the labelled 1.2, 1.5 and 2.5 so that no
+  // label floats without its line.
+  auto minor_lines = [](const Ticks& t, const std::vector<std::pair<double, bool>>& labelled) {
+    std::vector<double> lines = t.minor;
+    for (const auto& [v, major] : labelled)
+      if (!major && !std::binary_search(t.minor.begin(), t.minor.end(), v, [](double a, double b) {
+            return a < b * (1.0 - 1e-9);
+          }))
+        lines.push_back(v);
+    return lines;
+  };
   svg.put("<g stroke=\"{}\" stroke-width=\"1\">\n", kGridMinor);
   if (x_decade_px >= kMinorLinesMinDecade)
-    for (const double v : xt.minor)
+    for (const double v : minor_lines(xt, x_ticks))
       svg.put("<line class=\"grid-minor-x\" x1=\"{0}\" y1=\"{1}\" x2=\"{0}\" y2=\"{2}\"/>\n", num(layout.x_pixel(v)),
               num(layout.top), num(bottom));
   if (y_decade_px >= kMinorLinesMinDecade)
-    for (const double v : yt.minor)
+    for (const double v : minor_lines(yt, y_ticks))
       svg.put("<line class=\"grid-minor-y\" x1=\"{0}\" y1=\"{1}\" x2=\"{2}\" y2=\"{1}\"/>\n", num(layout.left),
               num(layout.y_pixel(v)), num(right));
   svg.put("</g>\n<g stroke=\"{}\" stroke-width=\"1\">\n", kGridMajor);
@@ -697,8 +756,6 @@ std::string render_svg_loglog(const std::vector<PlotSeries>& series, const std::
   // ---- frame and tick labels
   svg.put("<rect x=\"{}\" y=\"{}\" width=\"{}\" height=\"{}\" fill=\"none\" stroke=\"{}\" stroke-width=\"1\"/>\n",
           num(layout.left), num(layout.top), num(layout.width), num(layout.height), kFrame);
-  const auto x_ticks = tick_labels(xt, x_decade_px, kTickLabelMinDecadeX, kTickLabelSpacingX);
-  const auto y_ticks = tick_labels(yt, y_decade_px, kTickLabelMinDecadeY, kTickLabelSpacingY);
   svg.put("<g font-size=\"12\" fill=\"{}\">\n", kInkMuted);
   for (const auto& [v, major] : x_ticks) {
     svg.put("<line x1=\"{0}\" y1=\"{1}\" x2=\"{0}\" y2=\"{2}\" stroke=\"{3}\"/>\n", num(layout.x_pixel(v)),

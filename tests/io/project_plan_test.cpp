@@ -239,6 +239,15 @@ TEST_CASE("a plan-only project parses, and the plan problem sums the fixed parts
   CHECK_THAT(input_error_of([&] { (void)none.plan_problem(); }), Contains("/plan"));
 }
 
+TEST_CASE("the impedance margin reads as dB, as a number or with its unit", "[project][plan]") {
+  const Fixture f;
+  const auto margin = [&](const std::string& plan) { return f.parse(project("", plan)).plan_problem().margin_db; };
+  // docs/project_file.md: "impedance_margin" in dB, default 0.
+  CHECK(margin(R"({"candidates": {"values": ["1u"]}})") == 0.0);
+  CHECK_THAT(margin(R"({"impedance_margin": 1.5, "candidates": {"values": ["1u"]}})"), Catch::Matchers::WithinAbs(1.5, kExact));
+  CHECK_THAT(margin(R"({"impedance_margin": "3dB", "candidates": {"values": ["1u"]}})"), Catch::Matchers::WithinAbs(3.0, kExact));
+}
+
 TEST_CASE("each kind of bad plan input names the file and the JSON pointer", "[project][plan]") {
   const Fixture f;
   const auto bad = [&](const std::string& plan) { return f.error_of(project("", plan)); };
@@ -258,6 +267,8 @@ TEST_CASE("each kind of bad plan input names the file and the JSON pointer", "[p
     CHECK_THAT(bad(R"({"alternatives": 51})"), Contains("/plan/alternatives"));
     CHECK_THAT(bad(R"({"node_limit": 0})"), Contains("/plan/node_limit"));
     CHECK_THAT(bad(R"({"voltage_margin": 0.9})"), Contains("/plan/voltage_margin"));
+    CHECK_THAT(bad(R"({"impedance_margin": -1})"), Contains("/plan/impedance_margin"));
+    CHECK_THAT(bad(R"({"impedance_margin": "50dB"})"), Contains("/plan/impedance_margin"));
     CHECK_THAT(bad(R"({"max_per_part": -1})"), Contains("/plan/max_per_part"));
     CHECK_THAT(bad(R"({"max_total": 0})"), Contains("/plan/max_total"));
     CHECK_THAT(bad(R"({"max_area": "0mm^2"})"), Contains("/plan/max_area"));

@@ -382,6 +382,33 @@ TEST_CASE("each proven point of the cost-against-margin front is the enumeration
   CHECK(proven >= 1);
 }
 
+TEST_CASE("a design margin asks for the enumeration's optimum at the scaled target", "[plan]") {
+  const Instance in = mix_instance();
+  PlanProblem problem = to_problem(in);
+  problem.margin_db = 2.0;
+  // The margin asks for worst ratio <= 10^(-2/20) (plan.hpp): the enumeration at the
+  // target scaled by that factor.
+  reference::Rail rail = to_reference(in);
+  rail.target_scale = std::pow(10.0, -2.0 / 20.0);
+  const auto judge = reference::Judge::continuous(rail);
+  const auto ref = reference::solve(rail, judge);
+  REQUIRE(ref.feasible());
+  REQUIRE(ref.closest_to_one > kVerdictMargin);
+
+  const PlanResult result = quietrail::run_plan(problem, quick_options());
+  INFO(result.message);
+  REQUIRE(result.status == PlanStatus::optimal);
+  // Exhaustive enumeration at the scaled target; integer costs, so exact.
+  CHECK(result.best.objective == ref.optimum);
+  CHECK(judge.worst(result.best.counts) <= 1.0);
+  // The refined worst ratio against the real target is within the margin.
+  CHECK(result.best.worst_ratio <= std::pow(10.0, -2.0 / 20.0));
+  // Asking for margin never costs less than just meeting the target (same enumeration).
+  reference::Rail plain = to_reference(in);
+  const auto plain_ref = reference::solve(plain, reference::Judge::continuous(plain));
+  CHECK(ref.optimum >= plain_ref.optimum);
+}
+
 TEST_CASE("an impossible count limit is proven infeasible, with a bound below the best ratio", "[plan]") {
   Instance in = mix_instance();
   in.max_total = 4;

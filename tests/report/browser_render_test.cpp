@@ -1,20 +1,26 @@
 // SPDX-License-Identifier: MIT
 // A real browser renders an HTML report with a plot: headless Chromium takes a screenshot and
-// dumps the DOM; the test decodes the PNG and finds the plot, its curve and its markers.
+// dumps the DOM; the test decodes the PNG and finds the plot, its curve and its markers. The
+// second case does the same for the page `quietrail plan` writes, with its front plot.
 #include <catch2/catch.hpp>
 
 #include <algorithm>
 #include <cmath>
 #include <cstdint>
 #include <cstdlib>
+#include <filesystem>
 #include <string>
 #include <vector>
 
+#include <nlohmann/json.hpp>
+
 #include "quietrail/report/html_report.hpp"
 #include "quietrail/report/svg_plot.hpp"
+#include "support/cli_runner.hpp"
 #include "support/ngspice.hpp"  // find_on_path
 #include "support/png_reader.hpp"
 #include "support/temp_dir.hpp"
+#include "support/xml_check.hpp"
 
 using quietrail::HtmlReport;
 using quietrail::PlotLayout;
@@ -92,7 +98,8 @@ Sample sample_report() {
 // Runs chromium headless on `page` with a fresh profile; `action` is --screenshot=... or
 // --dump-dom. Output and errors go to `log`. Returns the exit status.
 int run_chromium(const std::filesystem::path& chromium, const TempDir& dir, const std::string& profile,
-                 const std::string& action, const std::filesystem::path& page, const std::filesystem::path& log) {
+                 const std::string& action, const std::filesystem::path& page, const std::filesystem::path& log,
+                 int window_height = kWindowHeight) {
   // Single quotes cover the temp paths (no quotes in them). --no-sandbox: needed when run as
   // root (CI containers); the page is our own file. The networking switches keep a test run
   // from reaching out anywhere.
@@ -100,7 +107,7 @@ int run_chromium(const std::filesystem::path& chromium, const TempDir& dir, cons
       "timeout 60 '" + chromium.string() + "' --headless --no-sandbox --disable-gpu --disable-background-networking "
       "--disable-component-update --disable-sync --no-first-run --hide-scrollbars --force-device-scale-factor=1 "
       "--user-data-dir='" + (dir / profile).string() + "' --window-size=" + std::to_string(kWindowWidth) + "," +
-      std::to_string(kWindowHeight) + " " + action + " 'file://" + page.string() + "' > '" + log.string() +
+      std::to_string(window_height) + " " + action + " 'file://" + page.string() + "' > '" + log.string() +
       "' 2>&1";
   return std::system(command.c_str());
 }
@@ -234,4 +241,225 @@ TEST_CASE("headless chromium renders the report with the plot in it", "[report][
   const double srf_column = area.left + (layout.x_pixel(sample.srf) - layout.left) * scale;
   INFO("lowest curve pixel at column " << lowest_x << ", SRF column " << srf_column);
   CHECK_THAT(static_cast<double>(lowest_x), Catch::Matchers::WithinAbs(srf_column, 4.0));
+}
+
+namespace {
+
+// ---- the plan report (quietrail plan): its cost-against-margin plot
+
+const std::filesystem::path kCli = QUIETRAIL_CLI_PATH;
+const std::filesystem::path kSourceDir = QUIETRAIL_SOURCE_DIR;
+// Tall enough for everything above the front plot and the plot itself on the example's page
+// (it sits at about 1300..2000 px in a 1200 px wide window).
+constexpr int kPlanWindowHeight = 2400;
+// The mask's colour over the plot fill: kMaskFill #d98a5f at fill-opacity 0.14 over #fcfbf8
+// (src/report/svg_plot.cpp), composited "source over", c = a*over + (1 - a)*under (Porter &
+// Duff, "Compositing digital images", SIGGRAPH 1984). Browsers round the result, so a channel
+// may differ by one or two.
+constexpr std::uint32_t kMaskColour = 0xD98A5F;
+constexpr double kMaskOpacity = 0.14;
+constexpr int kBlendTolerance = 2;
+// Rows without plot colours between two plots: far more than any grid line or curve covers.
+constexpr int kPlotGapRows = 40;
+
+int channel(std::uint32_t c, int shift) { return static_cast<int>((c >> shift) & 0xFFU); }
+
+bool near_blend(std::uint32_t c, std::uint32_t over, std::uint32_t under, double alpha) {
+  for (const int shift : {16, 8, 0}) {
+    const double expected = alpha * channel(over, shift) + (1.0 - alpha) * channel(under, shift);
+    if (std::abs(channel(c, shift) - expected) > kBlendTolerance) return false;
+  }
+  return true;
+}
+
+// One axis of the front SVG as its labels state it: label values (parsed as plain numbers)
+// at their pixel positions; value_at maps a value to a pixel by log interpolation between the
+// outermost labels (the log axis: pixel linear in log10 of the value).
+struct LabelledAxis {
+  std::vector<std::pair<double, double>> ticks;  // (value, pixel), ascending by value
+  double pixel_of(double v) const {
+    const auto& [a, pa] = ticks.front();
+    const auto& [b, pb] = ticks.back();
+    return pa + (pb - pa) * (std::log10(v) - std::log10(a)) / (std::log10(b) - std::log10(a));
+  }
+};
+
+// The whole text as a number, or NaN when it is not one (e.g. "500 m").
+double plain_number(const std::string& text) {
+  std::size_t used = 0;
+  try {
+    const double v = std::stod(text, &used);
+    return used == text.size() ? v : std::nan("");
+  } catch (const std::exception&) {
+    return std::nan("");
+  }
+}
+
+}  // namespace
+
+TEST_CASE("headless chromium renders the plan report with its front plot where the labels put it",
+          "[report][browser][plan]") {
+  const auto chromium = quietrail::test::find_on_path("chromium");
+  if (!chromium) FAIL(kChromiumMissing);
+  namespace fs = std::filesystem;
+  using Json = nlohmann::json;
+
+  // ---- the example rail, renamed to need escaping, its libraries found from the temp dir.
+  TempDir dir("browser-plan");
+  Json project = Json::parse(quietrail::test::read_text(kSourceDir / "examples/projects/decade_rail_plan.json"));
+  project["name"] = "decade <rail> & plan";
+  project["libraries"] = Json::array({(kSourceDir / "part_libraries/mlcc.json").string(),
+                                      (kSourceDir / "part_libraries/bulk.json").string()});
+  quietrail::test::write_text(dir / "rail.json", project.dump(2));
+  const auto run = quietrail::test::run_cli(kCli, dir.path(), {"plan", (dir / "rail.json").string(), "--out",
+                                                               (dir / "out").string()});
+  INFO(run.out << run.err);
+  REQUIRE(run.exit_code == 0);
+  auto output = [&](const std::string& suffix) {
+    for (const auto& name : quietrail::test::list_names(dir / "out"))
+      if (name.ends_with(suffix)) return dir / "out" / name;
+    FAIL("no output file ending in " << suffix);
+    return fs::path();
+  };
+  const fs::path page = output("_report.html");
+  const Json plan = Json::parse(quietrail::test::read_text(output("_plan.json")));
+  REQUIRE(plan["objective"] == "cost");  // the plot's x is then the relative cost itself
+
+  // ---- the front SVG's plot area and its axes as the tick labels state them.
+  const auto svg = quietrail::test::parse_xml(quietrail::test::read_text(output("_front.svg")));
+  const quietrail::test::XmlElement* area_rect = nullptr;
+  for (const auto* e : svg->all("rect"))
+    if (e->attribute("fill") == "#fcfbf8" && area_rect == nullptr) area_rect = e;
+  REQUIRE(area_rect != nullptr);
+  const double rect_x = std::stod(area_rect->attribute("x"));
+  const double rect_y = std::stod(area_rect->attribute("y"));
+  const double rect_w = std::stod(area_rect->attribute("width"));
+  const double rect_h = std::stod(area_rect->attribute("height"));
+  std::vector<double> grid_rows;
+  for (const auto* e : svg->all("line"))
+    if (e->attribute("class") == "grid-major-y" || e->attribute("class") == "grid-minor-y")
+      grid_rows.push_back(std::stod(e->attribute("y1")));
+  LabelledAxis x_axis;
+  LabelledAxis y_axis;
+  for (const auto* e : svg->all("text")) {
+    const bool is_x = e->attribute("class") == "tick-x";
+    if (!is_x && e->attribute("class") != "tick-y") continue;
+    // A ratio and a relative cost have no unit: every label is a plain number ("0.5", not "500 m").
+    const double value = plain_number(e->text);
+    INFO("tick label '" << e->text << "'");
+    REQUIRE(std::isfinite(value));
+    if (is_x) {
+      x_axis.ticks.emplace_back(value, std::stod(e->attribute("x")));  // text-anchor middle: the column
+      continue;
+    }
+    // A y label sits beside its grid line: the nearest one, a few pixels above its baseline.
+    const double baseline = std::stod(e->attribute("y"));
+    REQUIRE(!grid_rows.empty());
+    const double row = *std::min_element(grid_rows.begin(), grid_rows.end(), [&](double a, double b) {
+      return std::abs(a - baseline) < std::abs(b - baseline);
+    });
+    CHECK(std::abs(row - baseline) < 6.0);
+    y_axis.ticks.emplace_back(value, row);
+  }
+  std::sort(x_axis.ticks.begin(), x_axis.ticks.end());
+  std::sort(y_axis.ticks.begin(), y_axis.ticks.end());
+  REQUIRE(x_axis.ticks.size() >= 2);
+  REQUIRE(y_axis.ticks.size() >= 2);
+
+  // ---- the DOM: both plots parsed as SVG, the project's name escaped as text.
+  const auto dom_file = dir / "dom.html";
+  REQUIRE(run_chromium(*chromium, dir, "profile-dom", "--dump-dom", page, dom_file, kPlanWindowHeight) == 0);
+  const std::string dom = quietrail::test::read_text(dom_file);
+  CHECK(dom.find("id=\"plan-front\"") != std::string::npos);
+  CHECK(dom.find("id=\"check-plot\"") != std::string::npos);
+  CHECK(dom.find("viewBox=") != std::string::npos);  // camel case kept: parsed in the SVG namespace
+  CHECK(dom.find("Plan of decade &lt;rail&gt; &amp; plan") != std::string::npos);
+  CHECK(dom.find("<rail>") == std::string::npos);
+  CHECK(dom.find("<script") == std::string::npos);
+
+  // ---- the screenshot
+  const auto png_file = dir / "plan.png";
+  const auto log = dir / "screenshot.log";
+  const int status =
+      run_chromium(*chromium, dir, "profile-shot", "--screenshot='" + png_file.string() + "'", page, log,
+                   kPlanWindowHeight);
+  INFO(quietrail::test::read_text(log));
+  REQUIRE(status == 0);
+  const std::string png = quietrail::test::read_text(png_file);
+  const auto [width, height] = png_size(png);  // PNG spec, W3C 2003, section 11.2.2
+  CHECK(width == kWindowWidth);
+  CHECK(height == kPlanWindowHeight);
+  const RgbImage image = read_png(png);
+
+  // The front plot is the page's first plot: the first band of rows holding the plot fill or
+  // the mask over it (the mask spans the whole width above ratio 1, so the fill alone would
+  // miss the area's top), ended by a long run of rows without either.
+  auto plot_colour = [](std::uint32_t c) {
+    return c == kPlotFill || near_blend(c, kMaskColour, kPlotFill, kMaskOpacity);
+  };
+  Box area;
+  int gap = 0;
+  for (int y = 0; y < image.height && gap <= kPlotGapRows; ++y) {
+    bool any = false;
+    for (int x = 0; x < image.width; ++x)
+      if (plot_colour(image.at(x, y))) {
+        any = true;
+        area = {std::min(area.left, x), std::min(area.top, y), std::max(area.right, x), std::max(area.bottom, y)};
+      }
+    gap = any ? 0 : (area.bottom >= 0 ? gap + 1 : 0);
+  }
+  REQUIRE(area.bottom >= 0);
+  INFO("front plot area " << area.left << "," << area.top << " " << area.width() << "x" << area.height());
+  REQUIRE(area.bottom < image.height - 1);  // the whole plot is inside the window
+  const double scale = static_cast<double>(area.width()) / rect_w;
+  CHECK(scale > 0.5);
+  CHECK(scale < 1.5);
+  CHECK_THAT(static_cast<double>(area.height()) / rect_h, Catch::Matchers::WithinRel(scale, 0.02));
+
+  // The mask shades everything above ratio 1 across the whole width: the bare fill can only
+  // show below that line, the mask only above it (less what grid, curve and labels cover).
+  const double below_target = (rect_y + rect_h - y_axis.pixel_of(1.0)) / rect_h;
+  long fill_pixels = 0;
+  long mask_pixels = 0;
+  for (int y = area.top; y <= area.bottom; ++y)
+    for (int x = area.left; x <= area.right; ++x) {
+      const std::uint32_t c = image.at(x, y);
+      if (c == kPlotFill) ++fill_pixels;
+      else if (plot_colour(c)) ++mask_pixels;
+    }
+  const double pixels = static_cast<double>(area.width()) * area.height();
+  INFO("share below the target " << below_target << ", fill " << fill_pixels / pixels << ", mask "
+                                 << mask_pixels / pixels);
+  CHECK(fill_pixels / pixels < below_target);
+  CHECK(fill_pixels / pixels > 0.5 * below_target);
+  CHECK(mask_pixels / pixels < 1.0 - below_target);
+  CHECK(mask_pixels / pixels > 0.5 * (1.0 - below_target));
+
+  // Each front point of the plan JSON (cost, worst ratio), mapped through the labels' own
+  // axes, lands on a marker: its white fill at the spot, the total curve's colour next to it.
+  int points = 0;
+  for (const auto& point : plan["front"]) {
+    if (!point["found"].get<bool>()) continue;
+    const double cost = point["objective"].get<double>();
+    const double ratio = point["worst_ratio"].get<double>();
+    if (!(cost > 0.0) || !(ratio > 0.0)) continue;  // no place on a log axis
+    ++points;
+    const double column = area.left + (x_axis.pixel_of(cost) - rect_x) * scale;
+    const double row = area.top + (y_axis.pixel_of(ratio) - rect_y) * scale;
+    INFO("front point cost " << cost << ", ratio " << ratio << " expected at " << column << "," << row);
+    bool white = false;
+    long ink = 0;
+    constexpr int kSearch = 7;  // px: the marker's radius (4.5) and the curve beside it
+    for (int dy = -kSearch; dy <= kSearch; ++dy)
+      for (int dx = -kSearch; dx <= kSearch; ++dx) {
+        const int x = static_cast<int>(std::lround(column)) + dx;
+        const int y = static_cast<int>(std::lround(row)) + dy;
+        if (x < 0 || y < 0 || x >= image.width || y >= image.height) continue;
+        if (std::abs(dx) <= 1 && std::abs(dy) <= 1 && image.at(x, y) == 0xFFFFFF) white = true;
+        if (image.at(x, y) == kTotalCurve) ++ink;
+      }
+    CHECK(white);
+    CHECK(ink >= 3);
+  }
+  CHECK(points >= 2);
 }

@@ -194,6 +194,78 @@ TEST_CASE("an axis shorter than two decades also labels 2 and 5 times the decade
   CHECK(x_ticks == std::vector<std::string>{"1 MHz", "2 MHz", "5 MHz"});
 }
 
+TEST_CASE("a unitless axis is labelled with plain numbers, never SI prefixes", "[report]") {
+  // A ratio or a count has no unit, so no SI prefix either (prefixes attach to units: BIPM
+  // SI brochure, 9th ed., section 3); 0.5 must read "0.5", not "500 m". Tick values on a
+  // log axis are n * 10^k (the usual log axis); this one spans well under a decade in
+  // 524 px (y) and 840 px (x), so svg_plot.hpp's rule labels 1.2, 1.5 and 2..9 times each
+  // decade (9 and 10 stay more than 20 px / 62 px apart) besides the decade.
+  PlotOptions options;
+  options.x_unit = "";
+  options.y_unit = "";
+  options.x_min = 60.0;
+  options.x_max = 180.0;
+  options.y_min = 0.3;
+  options.y_max = 1.6;
+  const auto root = parse_xml(render_svg_loglog({}, {}, options));
+  std::vector<std::string> x_ticks;
+  for (const auto* e : with_class(*root, "text", "tick-x")) x_ticks.push_back(e->text);
+  std::vector<std::string> y_ticks;
+  for (const auto* e : with_class(*root, "text", "tick-y")) y_ticks.push_back(e->text);
+  // Values strictly inside (60, 180) and (0.3, 1.6): n * 10^k for n in {1, 1.2, 1.5, 2..9}.
+  CHECK(x_ticks == std::vector<std::string>{"70", "80", "90", "100", "120", "150"});
+  CHECK(y_ticks == std::vector<std::string>{"0.4", "0.5", "0.6", "0.7", "0.8", "0.9", "1", "1.2", "1.5"});
+  // Every label has its grid line: the label's column (text-anchor middle) is a grid line's.
+  std::vector<std::string> grid_columns;
+  for (const auto* cls : {"grid-major-x", "grid-minor-x"})
+    for (const auto* e : with_class(*root, "line", cls)) grid_columns.push_back(e->attribute("x1"));
+  for (const auto* e : with_class(*root, "text", "tick-x")) {
+    INFO("tick " << e->text << " at x " << e->attribute("x"));
+    CHECK(std::find(grid_columns.begin(), grid_columns.end(), e->attribute("x")) != grid_columns.end());
+  }
+}
+
+TEST_CASE("plain tick numbers take a short scientific form beyond 1e-4 to 1e6", "[report]") {
+  // x: four decades in 840 px (210 px each, under 230 px) carry decade labels only; y: three
+  // decades in 524 px (175 px each, at least 90 px) carry 2 and 5 times each decade too
+  // (svg_plot.hpp). 10^6 and beyond are written "1e6"; 10^-4 is still "0.0001".
+  PlotOptions options;
+  options.x_unit = "";
+  options.y_unit = "";
+  options.x_min = 1e3;
+  options.x_max = 1e7;
+  options.y_min = 1e-6;
+  options.y_max = 1e-3;
+  const auto root = parse_xml(render_svg_loglog({}, {}, options));
+  std::vector<std::string> x_ticks;
+  for (const auto* e : with_class(*root, "text", "tick-x")) x_ticks.push_back(e->text);
+  std::vector<std::string> y_ticks;
+  for (const auto* e : with_class(*root, "text", "tick-y")) y_ticks.push_back(e->text);
+  CHECK(x_ticks == std::vector<std::string>{"1000", "10000", "100000", "1e6", "1e7"});
+  CHECK(y_ticks == std::vector<std::string>{"1e-6", "2e-6", "5e-6", "1e-5", "2e-5", "5e-5", "0.0001", "0.0002",
+                                            "0.0005", "0.001"});
+}
+
+TEST_CASE("marker legend texts come from the options; the defaults name peaks", "[report]") {
+  const std::vector<PlotMarker> markers{{1e5, 0.05, "a", false}, {1e7, 0.2, "b", true}};
+  const std::vector<PlotSeries> series{{"rail", {1e3, 1e9}, {0.01, 1.0}, Style::total}};
+  auto legend_of = [&](const PlotOptions& options) {
+    std::vector<std::string> legend;
+    const auto root = parse_xml(render_svg_loglog(series, markers, options));
+    for (const auto* e : with_class(*root, "text", "legend")) legend.push_back(e->text);
+    return legend;
+  };
+  CHECK(legend_of({}) == std::vector<std::string>{"rail", "peak", "peak above target"});
+  PlotOptions renamed;
+  renamed.marker_legend = "selection <found>";
+  renamed.violation_legend = "";  // left out of the legend
+  CHECK(legend_of(renamed) == std::vector<std::string>{"rail", "selection <found>"});
+  // The markers themselves are still drawn, both kinds.
+  const auto root = parse_xml(render_svg_loglog(series, markers, renamed));
+  CHECK(with_class(*root, "circle", "marker").size() == 1);
+  CHECK(with_class(*root, "circle", "marker-violation").size() == 1);
+}
+
 TEST_CASE("a point at 1 MHz and 10 mohm lands on the pixel of the log axis transform", "[report]") {
   // Range 1 kHz..1 GHz and 1 mohm..1 ohm: log10(1e6) is half way along x (3 of 6 decades),
   // log10(1e-2) is two thirds down from the top (2 of 3 decades below 1 ohm).

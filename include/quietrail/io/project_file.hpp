@@ -127,6 +127,9 @@ struct PlanSection {
   /// A candidate must be rated at least voltage_margin * |dc_voltage| ("voltage_margin",
   /// >= 1, default 1.5: common practice for ceramic and polymer parts on low-voltage rails).
   double voltage_margin = 1.5;
+  /// Design margin below the target, dB ("impedance_margin", 0..40, default 0): the plan
+  /// holds |Z| <= Z_t * 10^(-margin/20) (PlanProblem::margin_db).
+  double margin_db = 0.0;
   /// Most copies of one candidate ("max_per_part", >= 0, default 50: our choice); a listed
   /// part's "max_count" overrides it.
   int max_per_part = 50;

@@ -81,6 +81,9 @@ struct PlanProblem {
   PlanLimits limits{};
   /// What to minimise.
   PlanObjective objective = PlanObjective::cost;
+  /// Design margin below the target, dB, >= 0: the answer holds |Z| <= Z_t * 10^(-margin/20)
+  /// on refined peaks (0: just meet the target).
+  double margin_db = 0.0;
   /// Cost, area and count of the parts already in `network` (for totals and the area
   /// limit), in the candidates' units.
   double fixed_cost = 0.0;
@@ -188,7 +191,10 @@ struct Infeasibility {
   /// Best worst-ratio found within the limits (refined, verified), and its selection.
   double best_ratio = 0.0;
   Selection best;
-  /// No selection within the limits has a worst ratio below this (relaxation bound).
+  /// No selection within the limits has a worst ratio below this: the larger of the
+  /// per-frequency relaxation floor and the highest ratio an exact search proved out of
+  /// reach (bisection steps that finished). Within 1 % of best_ratio when every step of
+  /// the bisection finished.
   double ratio_lower_bound = 0.0;
   /// Where even the relaxation cannot meet the target. May be empty when the target is
   /// missed only by the interplay of parts (no single frequency is out of reach).
@@ -202,13 +208,17 @@ struct Infeasibility {
 struct FrontPoint {
   /// The margin asked for, dB below the target (0 = just meet it).
   double margin_db = 0.0;
-  /// The least-objective selection found with worst ratio <= 10^(-margin/20) (verified),
+  /// The least-objective selection found with worst ratio <= 10^(-margin/20) (verified;
+  /// margins at or below the problem's own margin_db are not searched again),
   /// or std::nullopt when none was found within the limits.
   std::optional<Selection> selection{};
   /// Achieved margin, dB: -20 log10(selection->worst_ratio).
   double achieved_margin_db = 0.0;
   /// True when the search for this point finished within its node limit.
   bool proven = false;
+  /// Lower bound on the objective of any selection with this margin (= the selection's
+  /// objective when proven; +inf when proven that none exists).
+  double bound = 0.0;
 };
 
 /// Counters of the search, for the reports and the benchmark.
@@ -241,8 +251,10 @@ struct PlanResult {
   std::vector<FrontPoint> front;
   /// Set when status is infeasible.
   std::optional<Infeasibility> infeasibility{};
-  /// Refined peak frequencies that joined the grid because the search's answer broke the
-  /// target there, Hz, in the order added.
+  /// Frequencies that joined the search's grid, Hz, in the order added: around each refined
+  /// peak where an answer (the heuristic's or the exact search's) broke the target between
+  /// grid points, a cluster one grid step either side, spaced at a quarter of the peak's
+  /// half-power width.
   std::vector<double> added_frequencies;
   /// The fixed network plus the chosen copies (one branch per candidate with count > 0,
   /// named as the candidate), and its check (the reports are built from it).
@@ -251,10 +263,15 @@ struct PlanResult {
   PlanStats stats;
 };
 
+/// The ratio limit a plan holds: 10^(-margin_db/20) (1 without a margin).
+double margin_ratio(const PlanProblem& problem);
+
 /// Plans the rail. Steps: validate (InputError); search on the grid (heuristic to seed,
 /// then branch and bound); build the network and run_check it; while a refined peak
-/// breaks the target, add its frequency to the search's frequencies and search again.
-/// Then the front and, for an impossible target, the infeasibility analysis.
+/// breaks the target (or the margin), add frequencies around it to the search's and search
+/// again. Then the alternatives and the front, or for an impossible target the
+/// infeasibility analysis (relaxation floors per frequency, then a bisection on the ratio
+/// with exact searches for the best worst ratio within the limits).
 ///
 /// Example:
 ///   PlanProblem problem{...};               // fixed network, target, candidates

@@ -54,7 +54,9 @@ struct PlotOptions {
   std::string y_label = "|Z|";
   /// Units for the tick labels, written with SI prefixes by format_value (units.hpp), e.g.
   /// "1 kHz", "10 MHz". The unit "ohm" is shown as the sign U+03A9 ("10 mΩ"), so "m"
-  /// (milli) can never be read as mega.
+  /// (milli) can never be read as mega. An empty unit marks a unitless axis (a ratio, a
+  /// count): its ticks are plain numbers without prefixes ("0.5", "1", "20", "1000"; "1e-6"
+  /// and "1e6" beyond 1e-4..1e6), so a ratio of one half never reads "500 m".
   std::string x_unit = "Hz";
   std::string y_unit = "ohm";
   /// Size of the whole image in CSS pixels (viewBox and width/height attributes); 320..8000.
@@ -74,6 +76,11 @@ struct PlotOptions {
   /// each plot its own id when several are inlined in one HTML page. Letters, digits, '-'
   /// and '_' only; must start with a letter.
   std::string id = "quietrail-plot";
+  /// Legend texts for the two kinds of marker (PlotMarker::violation false / true); any
+  /// text (XML-escaped). The defaults name impedance peaks; a plot whose markers are
+  /// something else says so here. An empty text leaves that kind out of the legend.
+  std::string marker_legend = "peak";
+  std::string violation_legend = "peak above target";
 
   /// Throws InputError (file "plot options", field named) for a size out of range, an axis
   /// end that is not finite or not > 0, min >= max, or an invalid id.
@@ -111,11 +118,16 @@ PlotLayout plot_layout(const std::vector<PlotSeries>& series, const std::vector<
 /// A standalone SVG 1.1 document (root <svg> with xmlns, no XML declaration, no scripts,
 /// no references of any kind): log-log axes with a grid line at every decade in range
 /// (10^k for k from ceil(log10 min) to floor(log10 max)) and light lines at 2..9 times each
-/// decade, tick labels in engineering units (micro written as U+00B5; 2 and 5 times each
-/// decade labelled too when fewer than two decades show or a decade spans at least 230 px
-/// on x, 90 px on y), the target mask, branch curves under secondary curves under the total
+/// decade, tick labels in engineering units (micro written as U+00B5) or plain numbers for
+/// a unitless axis, the target mask, branch curves under secondary curves under the total
 /// curve (all clipped to the plot area), markers with labels placed clear of each other
 /// where possible, and a legend below the axes.
+/// Tick labels: every decade (thinned when decades crowd); 2 and 5 times each decade too
+/// when fewer than two decades show or a decade spans at least 230 px on x, 90 px on y;
+/// and 1.2, 1.5, 2, 2.5, 3, 4 .. 9 times each decade when even the closest pair (9 and 10)
+/// stays a label's spacing apart (62 px on x, 20 px on y: a decade of about 1350 px on x,
+/// 440 px on y; at the default size, an axis spanning about a decade or less). A label then
+/// lies within a factor 1.34 of any value, so a short axis is never left bare.
 /// Coordinates are written with two decimals in C-locale form, so the same input gives the
 /// same bytes. Series x/y of different lengths are a bug (QUIETRAIL_ASSERT); bad options
 /// throw InputError (PlotOptions::validate).
