@@ -287,6 +287,11 @@ Infeasibility analyse_infeasible(const PlanProblem& problem, const PlanOptions& 
   return out;
 }
 
+// A ratio in three digits, four near 1 (so 0.9999 does not read as exactly 1).
+std::string ratio_digits(double ratio) {
+  return std::abs(ratio - 1.0) < 0.005 ? fmt::format("{:.4g}", ratio) : fmt::format("{:.3g}", ratio);
+}
+
 std::string margin_phrase(const PlanProblem& problem) {
   return problem.margin_db > 0.0 ? fmt::format(" with {:.3g} dB of margin", problem.margin_db) : std::string();
 }
@@ -544,8 +549,8 @@ PlanResult run_plan(const PlanProblem& problem, const PlanOptions& options) {
         result.check = check_selection(problem, options, result.best.counts);
       }
     }
-    result.message = fmt::format("{}: {}, worst |Z|/Z_t {:.3g} at {}", to_string(result.status),
-                                 objective_text(problem, result.best), result.best.worst_ratio,
+    result.message = fmt::format("{}: {}, worst |Z|/Z_t {} at {}", to_string(result.status),
+                                 objective_text(problem, result.best), ratio_digits(result.best.worst_ratio),
                                  format_value(result.best.worst_frequency, "Hz"));
     if (problem.margin_db > 0.0) result.message += fmt::format(" ({:.3g} dB margin asked)", problem.margin_db);
     if (result.status == PlanStatus::feasible)
