@@ -65,6 +65,7 @@ int run(const CheckArgs& args) {
     run.other_view = solve_port_impedance(project.network, other, FrequencyGrid(run.result.frequencies));
     run.other_view_name = "|Z| seen from the " + std::string(project.view == LoadView::die ? "board" : "die");
   }
+  run.sensitivity = check_sensitivity(project, run.result);
   run.files = output_files(run.input, project, args.out_dir);
 
   std::vector<fs::path> inputs{run.input};

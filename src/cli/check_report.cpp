@@ -158,9 +158,30 @@ Json peak_json(const Peak& p) {
               {"raw_grid_ratio", number(p.raw_grid_ratio)}};
 }
 
+// ---------------------------------------------------------------- JSON
+
+Json sensitivity_json(const Sensitivity& s) {
+  Json changes = Json::array();
+  for (const WhatIf& w : s.changes)
+    changes.push_back({{"kind", w.kind},
+                       {"change", w.change},
+                       {"peak_ratio", number(w.peak_ratio)},
+                       {"peak_frequency_hz", number(w.peak_frequency)},
+                       {"worst_ratio", number(w.worst_ratio)},
+                       {"worst_frequency_hz", number(w.worst_frequency)}});
+  return {{"peak_ratio", number(s.peak_ratio)}, {"peak_frequency_hz", number(s.peak_frequency)}, {"changes", changes}};
+}
+
 }  // namespace
 
-// ---------------------------------------------------------------- JSON
+Sensitivity check_sensitivity(const Project& project, const CheckResult& result) {
+  SensitivityOptions options;
+  options.check = project.check_options();
+  for (std::size_t b = 0; b < project.roles.size(); ++b)
+    if (project.roles[b] == BranchRole::bom) options.changeable.push_back(static_cast<BranchId>(b));
+  if (options.changeable.empty()) return {};
+  return rank_changes(project.network, project.port, *project.target, result, options);
+}
 
 std::string check_json(const CheckRun& run) {
   const Project& p = run.project;
@@ -287,6 +308,7 @@ std::string check_json(const CheckRun& run) {
       {"exceeded", exceeded},
       {"peaks", peaks},
       {"ratio_peaks", ratio_peaks},
+      {"sensitivity", sensitivity_json(run.sensitivity)},
       {"parts", parts},
       {"totals",
        {{"capacitor_count", r.totals.capacitor_count},
@@ -424,6 +446,24 @@ std::string check_html(const CheckRun& run, const std::string& svg) {
                    {Align::right, Align::right, Align::right, Align::right, Align::right, Align::left, Align::left});
   }
 
+  if (!run.sensitivity.changes.empty()) {
+    page.add_heading("What lowers the worst peak most");
+    page.add_paragraph(fmt::format("The worst peak, {} at {}, after each change alone. Every row was computed by "
+                                   "checking the changed rail again (refined peaks), lowest peak first; a change "
+                                   "can lower this peak and raise another, which the last column shows.",
+                                   ratio_text(run.sensitivity.peak_ratio),
+                                   format_value(run.sensitivity.peak_frequency, "Hz", 4)));
+    std::vector<std::vector<std::string>> rows;
+    std::vector<RowTone> tones;
+    for (const WhatIf& w : run.sensitivity.changes) {
+      rows.push_back({w.change, ratio_text(w.peak_ratio), format_value(w.peak_frequency, "Hz", 4),
+                      ratio_text(w.worst_ratio), format_value(w.worst_frequency, "Hz", 4)});
+      tones.push_back(w.worst_ratio > 1.0 ? RowTone::fail : RowTone::plain);
+    }
+    page.add_table({"Change", "Peak after", "At", "Worst in band", "At"}, rows, tones,
+                   {Align::left, Align::right, Align::right, Align::right, Align::right});
+  }
+
   page.add_heading("Parts");
   {
     std::vector<std::vector<std::string>> rows;
@@ -510,6 +550,24 @@ std::string check_text(const CheckRun& run, bool colour) {
       line(fmt::format("  #{} formed by {}", i + 1, a.explanation));
       line(fmt::format("     to lower it: {}", a.remedy));
     }
+  }
+
+  if (!run.sensitivity.changes.empty()) {
+    line("");
+    line(paint("What lowers the worst peak most", Tone::heading, colour));
+    line(fmt::format("  worst peak {} at {}; each change below was checked again", ratio_text(run.sensitivity.peak_ratio),
+                     format_value(run.sensitivity.peak_frequency, "Hz", 4)));
+    using Align = TextTable::Align;
+    TextTable table({"Change", "Peak after", "At", "Worst in band"}, {Align::left, Align::right, Align::right, Align::right});
+    const std::size_t shown = std::min<std::size_t>(run.sensitivity.changes.size(), 6);
+    for (std::size_t i = 0; i < shown; ++i) {
+      const WhatIf& w = run.sensitivity.changes[i];
+      table.add_row({w.change, ratio_text(w.peak_ratio), format_value(w.peak_frequency, "Hz", 4),
+                     ratio_text(w.worst_ratio)});
+    }
+    out += table.render(colour);
+    if (run.sensitivity.changes.size() > shown)
+      line(fmt::format("  ({} more in the JSON and HTML reports)", run.sensitivity.changes.size() - shown));
   }
 
   line("");

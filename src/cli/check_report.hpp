@@ -9,6 +9,7 @@
 #include <vector>
 
 #include "quietrail/analysis/check.hpp"
+#include "quietrail/analysis/sensitivity.hpp"
 #include "quietrail/io/project_file.hpp"
 #include "quietrail/types.hpp"
 
@@ -32,8 +33,14 @@ struct CheckRun {
   /// |Z| seen from the node of the other view, ohm, on the result's grid; empty without one.
   ComplexVector other_view;
   std::string other_view_name;
+  /// What lowers the worst peak most (rank_changes over the BOM lines); empty changes when
+  /// not computed.
+  Sensitivity sensitivity;
   CheckFiles files;
 };
+
+/// rank_changes for a finished check of `run.project`: the BOM-role branches may change.
+Sensitivity check_sensitivity(const Project& project, const CheckResult& result);
 
 /// The JSON report (every number; see docs/project_file.md "Outputs").
 std::string check_json(const CheckRun& run);
