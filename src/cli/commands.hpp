@@ -20,5 +20,7 @@ void register_plan(CLI::App& app, Action& action);
 void register_calc(CLI::App& app, Action& action);
 void register_sweep(CLI::App& app, Action& action);
 void register_check(CLI::App& app, Action& action);
+void register_compare(CLI::App& app, Action& action);
+void register_yield(CLI::App& app, Action& action);
 
 }  // namespace quietrail::cli

@@ -23,6 +23,8 @@ int main(int argc, char** argv) {
   register_calc(app, action);
   register_sweep(app, action);
   register_check(app, action);
+  register_compare(app, action);
+  register_yield(app, action);
   try {
     app.parse(argc, argv);
   } catch (const CLI::ParseError& e) {
