@@ -1,7 +1,8 @@
 // SPDX-License-Identifier: MIT
 // `quietrail yield`: Monte Carlo of a project's BOM over tolerance, ESR/ESL spread and
 // derating (analysis/yield.hpp, docs/yield.md); prints a summary and writes the percentile
-// curves (CSV) and the summary with the worst trial and corners (JSON).
+// curves (CSV), the summary with the worst trial and corners (JSON), the percentile plot
+// (SVG) and the page (HTML; yield_report.hpp).
 #include <cmath>
 #include <filesystem>
 #include <fstream>
@@ -20,6 +21,7 @@
 #include "cli/exit_code.hpp"
 #include "cli/file_names.hpp"
 #include "cli/output_files.hpp"
+#include "cli/yield_report.hpp"
 #include "quietrail/analysis/yield.hpp"
 #include "quietrail/error.hpp"
 #include "quietrail/io/project_file.hpp"
@@ -155,6 +157,10 @@ int run(const YieldArgs& args) {
   std::string why;
   if (auto worst = worst_project_json(input, project, problem, r.worst_draw, why))
     outputs.emplace_back(directory / (stem + "_yield_worst.json"), std::move(*worst));
+  const YieldRun report{.project = project, .problem = problem, .options = options, .result = r};
+  const std::string svg = yield_svg(report);
+  outputs.emplace_back(directory / (stem + "_yield.svg"), svg);
+  outputs.emplace_back(directory / (stem + "_yield.html"), yield_html(report, svg));
   create_output_directory(directory);
   write_all_or_none(outputs, inputs);
 
@@ -184,8 +190,8 @@ void register_yield(CLI::App& app, Action& action) {
   CLI::App* sub = app.add_subcommand(
       "yield",
       "Monte Carlo of a project's BOM over capacitance tolerance, ESR/ESL spread, DC-bias and temperature "
-      "derating: the fraction of builds that meet the target; writes <out>/<name>_yield.json and "
-      "_yield_curves.csv");
+      "derating: the fraction of builds that meet the target; writes <out>/<name>_yield.json, "
+      "_yield_curves.csv, _yield.svg, _yield.html and _yield_worst.json");
   sub->add_option("project", args->project_file, "project file (JSON; see docs/project_file.md)")->required();
   sub->add_option("--trials", args->trials,
                   "builds to simulate, 1 to " + std::to_string(kMaxYieldTrials) + " (default 2000)");

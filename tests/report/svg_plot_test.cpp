@@ -22,6 +22,7 @@ using quietrail::PlotSeries;
 using quietrail::plot_layout;
 using quietrail::render_svg_loglog;
 using quietrail::test::parse_xml;
+using quietrail::test::points_of;
 using quietrail::test::XmlElement;
 using Style = PlotSeries::Style;
 
@@ -48,17 +49,6 @@ std::vector<const XmlElement*> with_class(const XmlElement& root, const std::str
 
 double attr(const XmlElement* e, const char* name) { return std::stod(e->attribute(name)); }
 
-// (x, y) pairs of a polyline's points attribute.
-std::vector<std::pair<double, double>> points_of(const XmlElement* e) {
-  std::vector<std::pair<double, double>> out;
-  std::string text = e->attribute("points");
-  std::replace(text.begin(), text.end(), ',', ' ');
-  std::istringstream in(text);
-  double x = 0;
-  double y = 0;
-  while (in >> x >> y) out.emplace_back(x, y);
-  return out;
-}
 
 // Pixel column of x on a log axis, closed form (the textbook log mapping).
 double expected_px(double x, double x_min, double x_max, double left, double width) {

@@ -3,11 +3,14 @@
 // XML library. Header-only (the test target compiles only *_test.cpp files).
 #pragma once
 
+#include <algorithm>
 #include <map>
 #include <memory>
+#include <sstream>
 #include <stdexcept>
 #include <string>
 #include <string_view>
+#include <utility>
 #include <vector>
 
 namespace quietrail::test {
@@ -196,6 +199,18 @@ inline std::unique_ptr<XmlElement> parse_xml(std::string_view text) {
   skip_misc();
   if (!at_end()) fail("content after the root element");
   return root;
+}
+
+/// (x, y) pairs of an SVG polyline's `points` attribute ("x,y x,y ..." or "x y x y ...").
+inline std::vector<std::pair<double, double>> points_of(const XmlElement* e) {
+  std::vector<std::pair<double, double>> out;
+  std::string text = e->attribute("points");
+  std::replace(text.begin(), text.end(), ',', ' ');
+  std::istringstream in(text);
+  double x = 0;
+  double y = 0;
+  while (in >> x >> y) out.emplace_back(x, y);
+  return out;
 }
 
 }  // namespace quietrail::test
