@@ -6,6 +6,7 @@
 #include <cmath>
 #include <filesystem>
 #include <fstream>
+#include <map>
 #include <optional>
 #include <sstream>
 #include <memory>
@@ -84,16 +85,32 @@ std::optional<std::string> worst_project_json(const fs::path& input, const Proje
   std::ostringstream text;
   text << in.rdbuf();
   nlohmann::json j = nlohmann::json::parse(text.str());
+  // Where each placed line lives in the JSON: its source is a JSON pointer ("/bom/3",
+  // "/plan/keep/0", "/feed/supply_bom/1"), except for lines of a BOM CSV, which first become
+  // ordinary "bom" lines (library id, count, name) so the file needs no CSV.
+  std::map<BranchId, std::string> pointer_of;
+  const auto from_csv = [&](const PlacedPart& p) {
+    return !project.bom_csv.empty() && p.source.rfind(project.bom_csv, 0) == 0;
+  };
+  for (const PlacedPart& p : project.parts)
+    if (!p.source.empty() && p.source.front() == '/' && !from_csv(p)) pointer_of[p.branch] = p.source;
+  if (!project.bom_csv.empty()) {
+    if (!j.contains("bom")) j["bom"] = nlohmann::json::array();
+    for (const PlacedPart& p : project.parts) {
+      if (pointer_of.count(p.branch) != 0) continue;
+      if (p.library_id.empty()) {
+        why = "the line at " + p.source + " is not a library part";
+        return std::nullopt;
+      }
+      pointer_of[p.branch] = "/bom/" + std::to_string(j["bom"].size());
+      j["bom"].push_back({{"part", p.library_id}, {"count", p.count}, {"name", p.name}});
+    }
+    j.erase("bom_csv");
+  }
   for (const PartDraw& d : draw.parts) {
-    const PlacedPart* placed = nullptr;
-    for (const PlacedPart& p : project.parts)
-      if (p.branch == d.branch) placed = &p;
-    const std::string prefix = "/bom/";
-    const std::string source = placed ? placed->source : std::string();
-    const std::string index = source.rfind(prefix, 0) == 0 ? source.substr(prefix.size()) : std::string();
-    if (index.empty() || index.find_first_not_of("0123456789") != std::string::npos) {
-      why = "the part at " + (source.empty() ? std::string("an unknown place") : source) +
-            " is not a line of \"bom\"";
+    const auto where = pointer_of.find(d.branch);
+    if (where == pointer_of.end()) {
+      why = "a varied part has no line in the project file";
       return std::nullopt;
     }
     const NetworkBranch& branch = problem.network.branches()[static_cast<std::size_t>(d.branch)];
@@ -102,7 +119,7 @@ std::optional<std::string> worst_project_json(const fs::path& input, const Proje
     if (std::isfinite(base.leakage_resistance)) part["leakage_resistance"] = base.leakage_resistance;
     if (base.dissipation_factor > 0.0) part["dissipation_factor"] = base.dissipation_factor;
     if (base.skin_corner > 0.0) part["skin_corner"] = base.skin_corner;
-    nlohmann::json& line = j.at("bom").at(std::stoul(index));
+    nlohmann::json& line = j.at(nlohmann::json::json_pointer(where->second));
     line["part"] = part;
     line["mounting"] = branch.part.mounting_inductance;
     line["name"] = branch.name;
@@ -110,7 +127,6 @@ std::optional<std::string> worst_project_json(const fs::path& input, const Proje
   nlohmann::json libraries = nlohmann::json::array();
   for (const auto& library : project.libraries) libraries.push_back(fs::absolute(library).string());
   if (j.contains("libraries")) j["libraries"] = libraries;
-  if (!project.bom_csv.empty()) j["bom_csv"] = fs::absolute(project.bom_csv).string();
   j.erase("plan");
   j["name"] = project.name + "_worst_trial_" + std::to_string(draw.trial);
   j["description"] = "Worst trial " + std::to_string(draw.trial) + " of a yield run of " + project.name + " (" +

@@ -106,6 +106,31 @@ TEST_CASE("yield on the core-rail example writes its summary and curves", "[cli]
   CHECK(count_lines(csv) == quietrail::FrequencyGrid(project.band).size() + 1);
 }
 
+TEST_CASE("the worst trial of a BOM from CSV and of a supply-side part is saved as a project check re-runs",
+          "[cli][yield]") {
+  // memory_rail's BOM comes from a CSV file; analog_rail has parts on the supply side of its
+  // bead. The saved project must hold every line itself and reproduce the worst trial.
+  for (const char* name : {"memory_rail", "analog_rail"}) {
+    CAPTURE(name);
+    const TempDir dir("yield-csv");
+    const fs::path project_file = kCoreRail.parent_path() / (std::string(name) + ".json");
+    const auto run = quietrail::test::run_cli(
+        kCli, dir.path(), {"yield", project_file.string(), "--trials", "200", "--out", (dir / "out").string()});
+    INFO(run.out << run.err);
+    REQUIRE(run.exit_code == 0);
+    CHECK_THAT(run.out, !Contains("not saved"));
+    const auto summary = nlohmann::json::parse(read_text(dir / "out" / (std::string(name) + "_yield.json")));
+    const quietrail::Project worst =
+        quietrail::read_project_file(dir / "out" / (std::string(name) + "_yield_worst.json"));
+    CHECK(worst.bom_csv.empty());
+    // Same network, same refined check: the ratio the yield run reported (consistency).
+    const quietrail::CheckResult recheck =
+        quietrail::run_check(worst.network, worst.port, *worst.target, worst.check_options());
+    CHECK_THAT(recheck.worst_ratio,
+               Catch::Matchers::WithinRel(summary.at("worst").at("check").at("worst_ratio").get<double>(), 1e-12));
+  }
+}
+
 TEST_CASE("yield rejects a zero or absurd trial count with exit 2 and writes nothing", "[cli][yield]") {
   const std::string count = GENERATE(std::string("0"), std::string("5000000"));
   const TempDir dir("yield-cli-bad");
