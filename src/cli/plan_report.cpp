@@ -382,7 +382,8 @@ std::string plan_json(const PlanRun& run) {
                          {"area_m2", s ? number(s->area) : Json(nullptr)},
                          {"worst_ratio", s ? number(s->worst_ratio) : Json(nullptr)},
                          {"counts", s ? selection_summary_json(problem, *s)["counts"] : Json(nullptr)},
-                         {"proven", point.proven}});
+                         {"proven", point.proven},
+                         {"bound", number(point.bound)}});
   }
 
   Json infeasibility = nullptr;
@@ -433,6 +434,7 @@ std::string plan_json(const PlanRun& run) {
       {"status", to_string(r.status)},
       {"message", r.message},
       {"objective", to_string(problem.objective)},
+      {"impedance_margin_db", problem.margin_db},
       {"seed", run.options.seed},
       {"options",
        {{"alternatives", run.options.alternatives},
