@@ -19,9 +19,7 @@
 #include "cli/terminal.hpp"
 #include "quietrail/analysis/check.hpp"
 #include "quietrail/error.hpp"
-#include "quietrail/frequency_grid.hpp"
 #include "quietrail/io/project_file.hpp"
-#include "quietrail/network/nodal_solver.hpp"
 
 namespace quietrail::cli {
 namespace {
@@ -57,14 +55,7 @@ int run(const CheckArgs& args) {
                      "a BOM to check (this project has only a plan section; run `quietrail plan` first, then check "
                      "its planned project)",
                      "no BOM line");
-  run.result = run_check(project.network, project.port, *project.target, project.check_options(), project.branch_info);
-
-  // With a load side, the other view is drawn beside the verdict's view.
-  if (project.die) {
-    const NodeId other = project.view == LoadView::die ? project.board : *project.die;
-    run.other_view = solve_port_impedance(project.network, other, FrequencyGrid(run.result.frequencies));
-    run.other_view_name = "|Z| seen from the " + std::string(project.view == LoadView::die ? "board" : "die");
-  }
+  check_project(run);
   run.sensitivity = check_sensitivity(project, run.result);
   run.files = output_files(run.input, project, args.out_dir);
 

@@ -3,6 +3,7 @@
 // summary. The numbers come from run_check and the project; nothing is computed twice.
 #include "cli/check_report.hpp"
 #include "cli/ratio_text.hpp"
+#include "quietrail/network/nodal_solver.hpp"
 
 #include <cctype>
 #include <cmath>
@@ -173,6 +174,17 @@ Json sensitivity_json(const Sensitivity& s) {
 }
 
 }  // namespace
+
+void check_project(CheckRun& run) {
+  const Project& project = run.project;
+  run.result = run_check(project.network, project.port, *project.target, project.check_options(), project.branch_info);
+  // With a load side, the other view is drawn beside the verdict's view.
+  if (project.die) {
+    const NodeId other = project.view == LoadView::die ? project.board : *project.die;
+    run.other_view = solve_port_impedance(project.network, other, FrequencyGrid(run.result.frequencies));
+    run.other_view_name = "|Z| seen from the " + std::string(project.view == LoadView::die ? "board" : "die");
+  }
+}
 
 Sensitivity check_sensitivity(const Project& project, const CheckResult& result) {
   SensitivityOptions options;

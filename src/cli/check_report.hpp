@@ -39,6 +39,10 @@ struct CheckRun {
   CheckFiles files;
 };
 
+/// Checks `run.project` as `quietrail check` does: run_check at the view's port, and with a
+/// load side the other view's |Z| on the same grid. Fills result, other_view and its name.
+void check_project(CheckRun& run);
+
 /// rank_changes for a finished check of `run.project`: the BOM-role branches may change.
 Sensitivity check_sensitivity(const Project& project, const CheckResult& result);
 

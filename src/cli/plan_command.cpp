@@ -31,9 +31,7 @@
 #include "cli/terminal.hpp"
 #include "quietrail/analysis/check.hpp"
 #include "quietrail/error.hpp"
-#include "quietrail/frequency_grid.hpp"
 #include "quietrail/io/project_file.hpp"
-#include "quietrail/network/nodal_solver.hpp"
 #include "quietrail/plan/plan.hpp"
 
 namespace quietrail::cli {
@@ -162,13 +160,7 @@ CheckRun check_planned(const PlanRun& run) {
     // The reader accepted the input and the plan added only library lines: a bug.
     throw InternalError(std::string("the planned project does not read back: ") + e.what());
   }
-  const Project& project = check.project;
-  check.result = run_check(project.network, project.port, *project.target, project.check_options(), project.branch_info);
-  if (project.die) {
-    const NodeId other = project.view == LoadView::die ? project.board : *project.die;
-    check.other_view = solve_port_impedance(project.network, other, FrequencyGrid(check.result.frequencies));
-    check.other_view_name = "|Z| seen from the " + std::string(project.view == LoadView::die ? "board" : "die");
-  }
+  check_project(check);
   // The plan writes no separate check JSON or page: the check lives inside the plan's.
   check.files.directory = run.files.directory;
   check.files.json = run.files.plan_json;

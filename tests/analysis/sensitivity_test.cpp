@@ -68,6 +68,17 @@ CheckOptions band() {
   return options;
 }
 
+// The pair checked against a flat 0.1 ohm target, and its ranking.
+quietrail::Sensitivity ranked_pair() {
+  const Network net = pair();
+  const auto port = *net.find_node("rail");
+  const TargetImpedance target = TargetImpedance::flat(0.1);
+  const auto base = quietrail::run_check(net, port, target, band());
+  quietrail::SensitivityOptions options;
+  options.check = band();
+  return quietrail::rank_changes(net, port, target, base, options);
+}
+
 const WhatIf& find(const quietrail::Sensitivity& s, const std::string& change) {
   const auto it = std::find_if(s.changes.begin(), s.changes.end(), [&](const WhatIf& w) { return w.change == change; });
   REQUIRE(it != s.changes.end());
@@ -77,13 +88,7 @@ const WhatIf& find(const quietrail::Sensitivity& s, const std::string& change) {
 }  // namespace
 
 TEST_CASE("one more copy moves the anti-resonance where the two-branch closed form puts it", "[analysis][sensitivity]") {
-  const Network net = pair();
-  const auto port = *net.find_node("rail");
-  const TargetImpedance target = TargetImpedance::flat(0.1);
-  const auto base = quietrail::run_check(net, port, target, band());
-  quietrail::SensitivityOptions options;
-  options.check = band();
-  const auto s = quietrail::rank_changes(net, port, target, base, options);
+  const quietrail::Sensitivity s = ranked_pair();
 
   // The base peak: REFERENCES §3 swept maximum 0.48889 ohm at 11.282 MHz.
   CHECK_THAT(s.peak_ratio, WithinRel(0.48889 / 0.1, 1e-4));
@@ -103,13 +108,7 @@ TEST_CASE("one more copy moves the anti-resonance where the two-branch closed fo
 }
 
 TEST_CASE("removing the only copy of a part leaves no anti-resonance near the peak", "[analysis][sensitivity]") {
-  const Network net = pair();
-  const auto port = *net.find_node("rail");
-  const TargetImpedance target = TargetImpedance::flat(0.1);
-  const auto base = quietrail::run_check(net, port, target, band());
-  quietrail::SensitivityOptions options;
-  options.check = band();
-  const auto s = quietrail::rank_changes(net, port, target, base, options);
+  const quietrail::Sensitivity s = ranked_pair();
   // Without the 100 nF part the 10 uF part alone is a series R-L-C: no parallel resonance, and
   // near 11 MHz its |Z| is about omega*L - 1/(omega*C) (REFERENCES §2), far below 0.49 ohm.
   const WhatIf& w = find(s, "without c100n");
@@ -123,13 +122,7 @@ TEST_CASE("removing the only copy of a part leaves no anti-resonance near the pe
 }
 
 TEST_CASE("a damping part with the loop's characteristic impedance flattens the peak", "[analysis][sensitivity]") {
-  const Network net = pair();
-  const auto port = *net.find_node("rail");
-  const TargetImpedance target = TargetImpedance::flat(0.1);
-  const auto base = quietrail::run_check(net, port, target, band());
-  quietrail::SensitivityOptions options;
-  options.check = band();
-  const auto s = quietrail::rank_changes(net, port, target, base, options);
+  const quietrail::Sensitivity s = ranked_pair();
   const auto damping = std::find_if(s.changes.begin(), s.changes.end(), [](const WhatIf& w) { return w.kind == "damping"; });
   REQUIRE(damping != s.changes.end());
   // Z0 = sqrt(L_loop / C_loop) of the pair: sqrt(2 nH / 99.01 nF) = 0.142 ohm (REFERENCES §3

@@ -1,6 +1,8 @@
 // SPDX-License-Identifier: MIT
 // End-to-end `quietrail compare`: exit codes (0 second configuration meets its target, 1 not,
-// 2 bad input), the four files written, nothing written on bad input, --json parses.
+// 2 bad input), the four files written, nothing written on bad input, --json parses. The
+// expected behaviour is the documented contract (docs/compare.md); the rail's numbers come
+// from the REFERENCES §3 two-branch closed form, as noted beside each check.
 #include <catch2/catch.hpp>
 
 #include <filesystem>
